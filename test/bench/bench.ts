@@ -1,0 +1,9 @@
+/**
+ * `npm run bench`: times the engine's hot paths against straightforward baselines,
+ * measured in the same run. Each area adds its cases in its own test/bench/cases-*.ts.
+ */
+import { runCases } from "./harness";
+import { engineCases } from "./cases-engine";
+
+console.log(`Reshuffle benchmarks (node ${process.version}); medians of repeated runs`);
+runCases([...engineCases]);
