@@ -22,7 +22,7 @@ function ensureCertificate(): void {
     "req", "-x509", "-newkey", "rsa:2048", "-nodes", "-sha256", "-days", "825",
     "-keyout", keyFile, "-out", certFile, "-subj", "/CN=localhost",
     "-addext", "subjectAltName=DNS:localhost,IP:127.0.0.1",
-  ], { stdio: "inherit" });
+  ], { stdio: "pipe" });
 }
 
 async function main(): Promise<void> {

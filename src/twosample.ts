@@ -3,8 +3,10 @@
  *
  * The pooled n = n₁ + n₂ observations are split at random into groups of the observed
  * sizes (Fisher 1935; Pitman 1937). Every statistic is updated in O(n) per split:
- *  - mean: through the first group's sum only (n₂S₁ − n₁S₂ = n₁n₂(x̄ − ȳ) is compared,
- *    exact in floating point for integer data);
+ *  - mean: through the first group's sum only (n₂S₁ − n₁S₂ = n₁n₂(x̄ − ȳ) is compared, on
+ *    values shifted by their minimum, which is exact for values within a factor of two
+ *    of it (Sterbenz 1974), so sums keep the digits that separate splits and integer
+ *    data stay exact);
  *  - median: the pooled values are sorted once; one pass over the sorted order with the
  *    split's labels finds both medians;
  *  - Welch t = (x̄ − ȳ) / √(s₁²/n₁ + s₂²/n₂) from each group's sum and sum of squares:
@@ -33,19 +35,14 @@ export function twoSampleTest(
   const n2 = y.length;
   if (n1 < 1 || n2 < 1) throw new RangeError("each sample needs at least one value");
   const statistic = options.statistic ?? "mean";
+  for (let i = 0; i < n1; i++) if (!Number.isFinite(x[i])) throw new RangeError(`value ${i + 1} of the first sample is not a finite number`);
+  for (let i = 0; i < n2; i++) if (!Number.isFinite(y[i])) throw new RangeError(`value ${i + 1} of the second sample is not a finite number`);
+  // Each sample sorted: a canonical layout, so results do not depend on row order.
   const pooled = new Float64Array(n1 + n2);
+  pooled.set(Float64Array.from(x).sort(), 0);
+  pooled.set(Float64Array.from(y).sort(), n1);
   const codes = new Int32Array(n1 + n2);
-  for (let i = 0; i < n1; i++) pooled[i] = x[i];
-  for (let i = 0; i < n2; i++) {
-    pooled[n1 + i] = y[i];
-    codes[n1 + i] = 1;
-  }
-  for (let i = 0; i < pooled.length; i++) {
-    if (!Number.isFinite(pooled[i])) {
-      const where = i < n1 ? `value ${i + 1} of the first sample` : `value ${i - n1 + 1} of the second sample`;
-      throw new RangeError(`${where} is not a finite number`);
-    }
-  }
+  codes.fill(1, n1);
   switch (statistic) {
     case "mean":
       return meanTest(pooled, codes, n1, n2, options);
@@ -91,7 +88,7 @@ function medianTest(
 ): PermutationResult & { estimate: number } {
   const n = n1 + n2;
   const order = Int32Array.from({ length: n }, (_, i) => i);
-  order.sort((a, b) => pooled[a] - pooled[b]);
+  order.sort((a, b) => pooled[a] - pooled[b] || codes[a] - codes[b]);
   const v = Float64Array.from(order, (i) => pooled[i]);
   const scheme = new GroupScheme(Int32Array.from(order, (i) => codes[i]));
   const lo1 = (n1 - 1) >> 1, hi1 = n1 >> 1;

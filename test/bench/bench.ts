@@ -4,6 +4,9 @@
  */
 import { runCases } from "./harness";
 import { engineCases } from "./cases-engine";
+import { resamplingCases } from "./cases-resampling";
+import { rankCases } from "./cases-ranks";
+import { statsCases } from "./cases-stats";
 
 console.log(`Reshuffle benchmarks (node ${process.version}); medians of repeated runs`);
-runCases([...engineCases]);
+runCases([...engineCases, ...resamplingCases, ...rankCases, ...statsCases]);
