@@ -312,6 +312,7 @@ export function clopperPearson(b: number, m: number, level = 0.95): [number, num
 export class PartitionSampler {
   private readonly pool: Float64Array;
   private readonly starts: Int32Array;
+  private readonly draws: Int32Array;
   readonly k: number;
   readonly total: number;
 
@@ -329,6 +330,7 @@ export class PartitionSampler {
     }
     this.k = k;
     this.total = t;
+    this.draws = new Int32Array(Math.max(1, this.starts[k - 1]));
   }
 
   /** Fills `sums` (length k) with the group sums of a uniformly random partition. */
@@ -336,12 +338,14 @@ export class PartitionSampler {
     const v = this.pool;
     const n = v.length;
     const k = this.k;
+    const idx = this.draws;
+    rng.descendingInts(idx, n, this.starts[k - 1]);
     let rest = this.total;
     for (let g = 0; g < k - 1; g++) {
       const end = this.starts[g + 1];
       let s = 0;
       for (let i = this.starts[g]; i < end; i++) {
-        const j = i + rng.int(n - i);
+        const j = i + idx[i];
         const x = v[j];
         v[j] = v[i];
         v[i] = x;

@@ -73,28 +73,84 @@ export class Rng {
   }
 
   /**
+   * Fills out[t] = int(first − step·t) for t = 0 … count − 1 (step 0: a fixed bound, as
+   * in bootstrap draws; step 1: the decreasing bounds of a Fisher–Yates shuffle). Same
+   * stream and results as calling {@link int} that many times, with the generator state
+   * kept in locals (the engine's hot loops: no allocation, no property writes per draw).
+   */
+  boundedInts(out: Int32Array, first: number, step: 0 | 1, count: number): void {
+    if (first >= 2097152) {
+      for (let t = 0; t < count; t++) out[t] = this.int(first - step * t);
+      return;
+    }
+    let s0 = this.s0, s1 = this.s1, s2 = this.s2, s3 = this.s3;
+    let n = first;
+    let threshold = -1; // (2^32 − n) mod n, computed only when a draw needs it, as in int()
+    for (let t = 0; t < count; t++, n -= step) {
+      if (step) threshold = -1;
+      if (n <= 1) {
+        out[t] = 0;
+        continue;
+      }
+      let prod = 0;
+      for (;;) {
+        const r = Math.imul(rotl(Math.imul(s1, 5), 7), 9) >>> 0;
+        const x = s1 << 9;
+        s2 ^= s0;
+        s3 ^= s1;
+        s1 ^= s2;
+        s0 ^= s3;
+        s2 ^= x;
+        s3 = rotl(s3, 11);
+        prod = r * n;
+        const lo = prod >>> 0;
+        if (lo >= n) break;
+        if (threshold < 0) threshold = (TWO_POW_32 - n) % n;
+        if (lo >= threshold) break;
+      }
+      out[t] = (prod * 2.3283064365386963e-10) | 0; // < 2^21, so | 0 is floor
+    }
+    this.s0 = s0; this.s1 = s1; this.s2 = s2; this.s3 = s3;
+  }
+
+  /** Fills out[t] = int(first − t) for t < count: the draws of a Fisher–Yates shuffle. */
+  descendingInts(out: Int32Array, first: number, count: number): void {
+    this.boundedInts(out, first, 1, count);
+  }
+
+  private scratch = new Int32Array(0);
+
+  /** `count` indices drawn uniformly with replacement from [0, n), in a reused buffer. */
+  private draws(n: number, count: number): Int32Array {
+    if (this.scratch.length < count) this.scratch = new Int32Array(count);
+    this.boundedInts(this.scratch, n, 0, count);
+    return this.scratch;
+  }
+
+  /**
    * Sum of `count` values drawn uniformly with replacement from `values` — the same
-   * stream and result as summing `values[this.int(values.length)]` `count` times, with
-   * the generator state kept in locals (the bootstrap's hot loop: no allocation, no
-   * property writes per draw).
+   * stream and result as summing `values[this.int(values.length)]` `count` times.
    */
   sumOfDraws(values: ArrayLike<number>, count: number): number {
+    // Fused with the generator (rather than boundedInts + a second pass): this is the
+    // bootstrap-of-the-mean hot loop, where the extra pass costs about a third.
     const n = values.length;
-    let s = 0;
     if (n >= 2097152 || n <= 1) {
-      for (let i = 0; i < count; i++) s += values[this.int(n)];
-      return s;
+      let t = 0;
+      for (let i = 0; i < count; i++) t += values[this.int(n)];
+      return t;
     }
     let s0 = this.s0, s1 = this.s1, s2 = this.s2, s3 = this.s3;
     const threshold = (TWO_POW_32 - n) % n;
+    let s = 0;
     for (let i = 0; i < count; ) {
       const r = Math.imul(rotl(Math.imul(s1, 5), 7), 9) >>> 0;
-      const t = s1 << 9;
+      const x = s1 << 9;
       s2 ^= s0;
       s3 ^= s1;
       s1 ^= s2;
       s0 ^= s3;
-      s2 ^= t;
+      s2 ^= x;
       s3 = rotl(s3, 11);
       const prod = r * n;
       if (prod >>> 0 < threshold) continue; // Lemire's rejection, as in int()
@@ -111,37 +167,13 @@ export class Rng {
    * out[1]. Same stream as {@link sumOfDraws}.
    */
   sumsOfDraws(a: ArrayLike<number>, b: ArrayLike<number>, count: number, out: Float64Array): void {
-    const n = a.length;
+    const idx = this.draws(a.length, count);
     let sa = 0, sb = 0;
-    if (n >= 2097152 || n <= 1) {
-      for (let i = 0; i < count; i++) {
-        const j = this.int(n);
-        sa += a[j];
-        sb += b[j];
-      }
-      out[0] = sa;
-      out[1] = sb;
-      return;
-    }
-    let s0 = this.s0, s1 = this.s1, s2 = this.s2, s3 = this.s3;
-    const threshold = (TWO_POW_32 - n) % n;
-    for (let i = 0; i < count; ) {
-      const r = Math.imul(rotl(Math.imul(s1, 5), 7), 9) >>> 0;
-      const t = s1 << 9;
-      s2 ^= s0;
-      s3 ^= s1;
-      s1 ^= s2;
-      s0 ^= s3;
-      s2 ^= t;
-      s3 = rotl(s3, 11);
-      const prod = r * n;
-      if (prod >>> 0 < threshold) continue;
-      const j = (prod * 2.3283064365386963e-10) | 0;
+    for (let i = 0; i < count; i++) {
+      const j = idx[i];
       sa += a[j];
       sb += b[j];
-      i++;
     }
-    this.s0 = s0; this.s1 = s1; this.s2 = s2; this.s3 = s3;
     out[0] = sa;
     out[1] = sb;
   }
@@ -152,6 +184,7 @@ export class Rng {
    * {@link sumOfDraws}; used for order statistics of a resample of a sorted sample.
    */
   countDraws(counts: Int32Array, count: number): void {
+    // Fused like sumOfDraws: the bootstrap-of-the-median hot loop.
     const n = counts.length;
     if (n >= 2097152 || n <= 1) {
       for (let i = 0; i < count; i++) counts[this.int(n)]++;
@@ -161,12 +194,12 @@ export class Rng {
     const threshold = (TWO_POW_32 - n) % n;
     for (let i = 0; i < count; ) {
       const r = Math.imul(rotl(Math.imul(s1, 5), 7), 9) >>> 0;
-      const t = s1 << 9;
+      const x = s1 << 9;
       s2 ^= s0;
       s3 ^= s1;
       s1 ^= s2;
       s0 ^= s3;
-      s2 ^= t;
+      s2 ^= x;
       s3 = rotl(s3, 11);
       const prod = r * n;
       if (prod >>> 0 < threshold) continue;

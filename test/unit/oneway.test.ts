@@ -73,3 +73,15 @@ describe("one-way F (PlantGrowth, Dobson 1983)", () => {
     expect(Math.abs(mc.p - ex.p)).toBeLessThan(4 * se + 1 / 1000);
   });
 });
+
+describe("one-way F far from zero", () => {
+  it("a shift of the data by 10^6 leaves the exact count unchanged (location invariance of F)", () => {
+    const x = [3.1, 4.2, 2.2, 5.9, 6.1, 4.4, 7.0, 8.1, 5.5];
+    const labs = [0, 0, 0, 1, 1, 1, 2, 2, 2];
+    const a = permutationF(x, labs, 3, { resamples: 5000 });
+    const b = permutationF(x.map((v) => v + 1e6), labs, 3, { resamples: 5000 });
+    expect(b.exact).toBe(true);
+    expect(b.count).toBe(a.count);
+    expect(b.f).toBeCloseTo(a.f, 6);
+  });
+});
