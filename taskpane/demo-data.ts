@@ -3,6 +3,8 @@
  *  - a growers' cooperative's trial of four barley lines (made-up codes HB-07, HB-12,
  *    HB-19, HB-23) on five farms used as blocks, two plots per line and farm, yield in
  *    t/ha, right-skewed with one outlying plot (HB-12 on Creek field, 6.59 t/ha);
+ *  - the grain quality of the same trial (protein, screenings, height), one sample per
+ *    line and farm;
  *  - a lab's paired readings of twelve samples before and after a treatment.
  */
 
@@ -66,4 +68,33 @@ export const LAB_PAIRED: (string | number)[][] = [
   ["S10", 19.8, 17.2],
   ["S11", 18.4, 14.6],
   ["S12", 12.1, 10.7],
+];
+
+/**
+ * Header + rows: farm, line, grain protein (%), screenings (% of grain through the
+ * sieve), plant height (cm) — one sample per line and farm from the same invented
+ * trial, for the "several traits at once" question.
+ */
+export const BARLEY_QUALITY: (string | number)[][] = [
+  ["Farm", "Line", "Protein (%)", "Screenings (%)", "Height (cm)"],
+  ["North plot", "HB-07", 12.1, 3.8, 79],
+  ["North plot", "HB-12", 11.6, 4.9, 85],
+  ["North plot", "HB-19", 10.6, 6.8, 90],
+  ["North plot", "HB-23", 12.3, 4.1, 76],
+  ["Creek field", "HB-07", 11.9, 4.2, 81],
+  ["Creek field", "HB-12", 11.2, 5.6, 87],
+  ["Creek field", "HB-19", 10.4, 7.4, 92],
+  ["Creek field", "HB-23", 12.6, 3.7, 75],
+  ["Hill farm", "HB-07", 12.4, 3.5, 78],
+  ["Hill farm", "HB-12", 11.8, 4.4, 84],
+  ["Hill farm", "HB-19", 10.9, 6.1, 88],
+  ["Hill farm", "HB-23", 12.0, 4.6, 79],
+  ["Home block", "HB-07", 11.8, 4.0, 80],
+  ["Home block", "HB-12", 11.5, 5.2, 86],
+  ["Home block", "HB-19", 10.2, 7.9, 91],
+  ["Home block", "HB-23", 12.2, 4.3, 77],
+  ["East strip", "HB-07", 12.2, 3.6, 82],
+  ["East strip", "HB-12", 11.9, 5.8, 85],
+  ["East strip", "HB-19", 10.7, 6.5, 89],
+  ["East strip", "HB-23", 12.5, 3.9, 74],
 ];

@@ -7,6 +7,7 @@ import { engineCases } from "./cases-engine";
 import { resamplingCases } from "./cases-resampling";
 import { rankCases } from "./cases-ranks";
 import { statsCases } from "./cases-stats";
+import { panelCases } from "./cases-panel";
 
 console.log(`Reshuffle benchmarks (node ${process.version}); medians of repeated runs`);
-runCases([...engineCases, ...resamplingCases, ...rankCases, ...statsCases]);
+runCases([...engineCases, ...resamplingCases, ...rankCases, ...statsCases, ...panelCases]);
