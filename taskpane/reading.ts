@@ -250,18 +250,26 @@ export function reading(r: AnalysisResult, names: Names): string[] {
   }
 }
 
+/** Said with every result: the limits of one trial, and who has the last word. */
+export const COMMON_CAUTION =
+  "One trial is weak evidence on its own: check that plots or samples were randomized and the data have no slips, and weigh the result with local recommendations and qualified advice before a costly decision.";
+
 /** The short caution shown with every result that can drive a costly decision. */
 export function caution(r: AnalysisResult): string {
+  return `Caution: ${specificCaution(r)} ${COMMON_CAUTION}`;
+}
+
+function specificCaution(r: AnalysisResult): string {
   switch (r.question) {
     case "groups":
-      return "Caution: a small p-value says the differences are unlikely to be chance alone; it does not say they are big enough to pay. Before choosing a line or treatment, weigh the size of the difference and its interval against costs, and check that the trial covered your conditions (seasons, soils, sites).";
+      return "a small p-value says the differences are unlikely to be chance alone, not that they are big enough to pay; weigh the size of each difference and its interval against costs, and ask whether the trial covered your conditions (seasons, soils, sites).";
     case "paired":
-      return "Caution: a change between two readings may come from the treatment or from anything else that changed in between (time, instrument, handling). Weigh the size of the change, not only the p-value.";
+      return "a change between two readings may come from the treatment or from anything else that changed in between (time, instrument, handling); weigh the size of the change, not only the p-value.";
     case "association":
-      return "Caution: an association can come from a third factor that drives both columns. Do not act on it as if one causes the other without other evidence.";
+      return "an association can come from a third factor that drives both columns; do not act on it as if one causes the other without other evidence.";
     case "precision":
-      return "Caution: the interval covers only the chance of sampling. Measurement bias, or samples that do not represent the whole, are not included.";
+      return "the interval covers only the chance of sampling, not measurement bias or samples that do not represent the whole.";
     case "traits":
-      return "Caution: a difference on the traits taken together does not say which trait matters for your decision; look at the traits one at a time and at their sizes.";
+      return "a difference on the traits taken together does not say which trait matters for your decision; look at the traits one at a time and at their sizes.";
   }
 }

@@ -16,16 +16,17 @@ import { FUNCTION_SPECS } from "../../functions/catalog";
 
 const INPUT = path.resolve(__dirname, "../../functions/functions.ts");
 const DESIGN = path.resolve(__dirname, "../../../shared/design.md");
+const README = path.resolve(__dirname, "../../README.md");
 
 interface DesignRow {
   name: string;
   params: { name: string; optional: boolean }[];
 }
 
-/** Rows "| `RS.NAME(a, b, [c])` | … |" of the design's sheet-function table. */
-function designTable(): DesignRow[] {
+/** Rows "| `RS.NAME(a, b, [c])` | … |" of a sheet-function table (the design's by default). */
+function designTable(file = DESIGN): DesignRow[] {
   const rows: DesignRow[] = [];
-  for (const line of fs.readFileSync(DESIGN, "utf8").split("\n")) {
+  for (const line of fs.readFileSync(file, "utf8").split("\n")) {
     const m = /^\|\s*`RS\.([A-Z]+)\(([^)]*)\)`/.exec(line);
     if (!m) continue;
     const params = m[2]
@@ -44,6 +45,16 @@ async function generate() {
 }
 
 describe("functions.json from functions/functions.ts", () => {
+  it("the README's function table matches functions.json (names, parameter order, optional flags)", async () => {
+    const { metadata } = await generate();
+    const readme = designTable(README);
+    expect(readme.map((r) => r.name)).toEqual(metadata.functions.map((f) => f.id));
+    for (const [i, f] of metadata.functions.entries()) {
+      const params = f.parameters.map((p: any) => ({ name: p.name, optional: Boolean(p.optional) }));
+      expect(readme[i].params, f.id).toEqual(params);
+    }
+  });
+
   it("the design table has the 14 sheet functions", () => {
     expect(designTable().map((r) => r.name)).toEqual([
       "GROUPTEST", "STAT", "SNR", "TWOTEST", "PAIRTEST", "BLOCKTEST", "CORRTEST",

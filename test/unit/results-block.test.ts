@@ -118,6 +118,11 @@ describe("one-way block on the barley trial", () => {
     expect(method).toContain("9,999");
     expect(method).toContain("seed 1");
     expect(String(tags.get("caution")!.cell.value)).toMatch(/^Caution:/);
+    // The product rule: one trial is weak evidence; randomization and data checks; local recommendations and advice.
+    const cautionText = [...tags].filter(([t]) => t === "caution" || t.startsWith("caution~")).map(([, t]) => String(t.cell.value)).join(" ");
+    expect(cautionText).toMatch(/One trial is weak evidence/);
+    expect(cautionText).toMatch(/randomized/);
+    expect(cautionText).toMatch(/local recommendations and qualified advice/);
     const lead = [...tags].filter(([t]) => t === "reading" || t.startsWith("reading~")).map(([, t]) => String(t.cell.value)).join(" ");
     expect(lead).toMatch(/^Very strong evidence that yield differs between the lines: in none of 9,999 random shuffles of the line labels were the differences as large as in the data \(p = 0\.0001/);
   });
