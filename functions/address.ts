@@ -7,6 +7,11 @@
 export interface RangeAddress {
   /** Sheet name without quotes ("" when the address had no sheet part). */
   sheet: string;
+  /**
+   * Workbook part without brackets ("Book2.xlsx" for "[Book2.xlsx]Sheet1!A1", also after a
+   * folder path); "" when the address names no workbook.
+   */
+  book?: string;
   /** The range part as written, without "$" (e.g. "A2:A31"). */
   range: string;
   /** 0-based first row and column. */
@@ -58,14 +63,20 @@ export function parseAddress(address: string | null | undefined): RangeAddress |
   let text = address.trim();
   if (text === "") return null;
   let sheet = "";
+  let book = "";
   const bang = text.lastIndexOf("!");
   if (bang >= 0) {
     let s = text.slice(0, bang);
     text = text.slice(bang + 1);
     if (s.startsWith("'") && s.endsWith("'") && s.length >= 2) s = s.slice(1, -1).replace(/''/g, "'");
-    // A workbook prefix "[Book1.xlsx]Sheet1" names the sheet after the bracket.
+    // A workbook prefix "[Book1.xlsx]Sheet1" (or "C:\folder\[Book1.xlsx]Sheet1") names
+    // the sheet after the bracket.
+    const open = s.indexOf("[");
     const close = s.lastIndexOf("]");
-    if (s.startsWith("[") && close > 0) s = s.slice(close + 1);
+    if (open >= 0 && close > open) {
+      book = s.slice(open + 1, close);
+      s = s.slice(close + 1);
+    }
     sheet = s;
   }
   const parts = text.split(":");
@@ -76,14 +87,14 @@ export function parseAddress(address: string | null | undefined): RangeAddress |
     if (ca && cb) {
       const c1 = columnIndex(ca[1]), c2 = columnIndex(cb[1]);
       const left = Math.min(c1, c2);
-      return { sheet, range: `${columnLetters(left)}:${columnLetters(Math.max(c1, c2))}`, top: 0, left, rows: SHEET_ROWS, cols: Math.abs(c2 - c1) + 1 };
+      return { sheet, book, range: `${columnLetters(left)}:${columnLetters(Math.max(c1, c2))}`, top: 0, left, rows: SHEET_ROWS, cols: Math.abs(c2 - c1) + 1 };
     }
     const ra = ROW.exec(parts[0]), rb = ROW.exec(parts[1]);
     if (ra && rb) {
       const r1 = Number(ra[1]) - 1, r2 = Number(rb[1]) - 1;
       if (r1 < 0 || r2 < 0) return null;
       const top = Math.min(r1, r2);
-      return { sheet, range: `${top + 1}:${Math.max(r1, r2) + 1}`, top, left: 0, rows: Math.abs(r2 - r1) + 1, cols: SHEET_COLS };
+      return { sheet, book, range: `${top + 1}:${Math.max(r1, r2) + 1}`, top, left: 0, rows: Math.abs(r2 - r1) + 1, cols: SHEET_COLS };
     }
   }
   const a = CELL.exec(parts[0]);
@@ -95,5 +106,5 @@ export function parseAddress(address: string | null | undefined): RangeAddress |
   const top = Math.min(r1, r2), left = Math.min(c1, c2);
   const rows = Math.abs(r2 - r1) + 1, cols = Math.abs(c2 - c1) + 1;
   const range = rows === 1 && cols === 1 ? cellName(top, left) : `${cellName(top, left)}:${cellName(top + rows - 1, left + cols - 1)}`;
-  return { sheet, range, top, left, rows, cols };
+  return { sheet, book, range, top, left, rows, cols };
 }

@@ -41,7 +41,7 @@ export function readCell(v: unknown): Cell {
     const type = typeof o.type === "string" ? o.type : "";
     if (typeof o.code === "string" && o.code.startsWith("#")) return { kind: "error", code: o.code };
     if (type === "Error") {
-      const code = typeof o.basicValue === "string" ? o.basicValue : typeof o.errorType === "string" ? `#${o.errorType}` : "#VALUE!";
+      const code = typeof o.basicValue === "string" && o.basicValue.startsWith("#") ? o.basicValue : typeof o.errorType === "string" ? errorCodeOf(o.errorType) : "#VALUE!";
       return { kind: "error", code };
     }
     if (v instanceof Error) return { kind: "error", code: "#VALUE!" };
@@ -51,6 +51,51 @@ export function readCell(v: unknown): Cell {
     if (type === "Boolean" && typeof o.basicValue === "boolean") return { kind: "logical", value: o.basicValue };
   }
   return { kind: "other" };
+}
+
+/** Excel's error code for a rich error value's `errorType` ("Div0" → "#DIV/0!"). */
+const ERROR_CODES: Record<string, string> = {
+  Div0: "#DIV/0!",
+  NotAvailable: "#N/A",
+  Name: "#NAME?",
+  Null: "#NULL!",
+  Num: "#NUM!",
+  Ref: "#REF!",
+  Value: "#VALUE!",
+  Spill: "#SPILL!",
+  Calc: "#CALC!",
+  Busy: "#BUSY!",
+  GettingData: "#GETTING_DATA",
+  Connect: "#CONNECT!",
+  Blocked: "#BLOCKED!",
+  Field: "#FIELD!",
+  External: "#EXTERNAL!",
+};
+
+function errorCodeOf(errorType: string): string {
+  return Object.prototype.hasOwnProperty.call(ERROR_CODES, errorType) ? ERROR_CODES[errorType] : `#${errorType.toUpperCase()}`;
+}
+
+/**
+ * True for text that Excel users mean as a number but typed or imported as text:
+ * "4.2", " 4.2 ", "4,2" (decimal comma), "1,234.5", "-3", "5%" — not "n/a" or "".
+ */
+export function looksNumeric(text: string): boolean {
+  const t = text.trim();
+  if (t === "" || !/^[-+(]?[0-9.,\s]+([eE][-+]?[0-9]+)?%?\)?$/.test(t) || !/[0-9]/.test(t)) return false;
+  const plain = t.replace(/[\s%()+]/g, "");
+  return Number.isFinite(Number(plain)) || Number.isFinite(Number(plain.replace(/,/g, ""))) || Number.isFinite(Number(plain.replace(",", ".")));
+}
+
+/** "1 cell", "2 cells". */
+export function count(n: number, word: string): string {
+  return `${n} ${word}${n === 1 ? "" : "s"}`;
+}
+
+/** True when every value equals the first (also for fewer than two values). */
+export function allEqual(x: ArrayLike<number>): boolean {
+  for (let i = 1; i < x.length; i++) if (x[i] !== x[0]) return false;
+  return true;
 }
 
 /** True for a blank cell value (fast path for primitives, rich values through readCell). */
@@ -64,12 +109,13 @@ function describe(c: Cell): string {
   switch (c.kind) {
     case "text": {
       const t = c.value.length > 24 ? `${c.value.slice(0, 21)}…` : c.value;
+      if (looksNumeric(c.value)) return `'${t}' is a number stored as text; enter it as a number (retype it, or convert the column with =VALUE(…) or Text to Columns)`;
       return `'${t}' is not a number`;
     }
     case "logical":
-      return `${c.value ? "TRUE" : "FALSE"} is a logical value, not a number`;
+      return `${c.value ? "TRUE" : "FALSE"} is a logical value, not a number; enter a number or clear the cell`;
     case "error":
-      return `the cell holds the error ${c.code}`;
+      return `the cell holds the error ${c.code}; fix the formula there or clear the cell`;
     case "number":
       return `${c.value} is not a finite number`;
     default:
@@ -100,7 +146,7 @@ export function rangeArg(name: string, raw: unknown, mask: EmptyMask | null = nu
   if (rows === 0) fail(invalid(`${name} is empty: give a range of cells.`));
   const cols = Array.isArray(cells[0]) ? cells[0].length : 0;
   for (const row of cells) {
-    if (!Array.isArray(row) || row.length !== cols || cols === 0) fail(invalid(`${name} is not a rectangular range of cells.`));
+    if (!Array.isArray(row) || row.length !== cols || cols === 0) fail(invalid(`${name} is not a rectangular range of cells: give one block of cells (a column, a row or a rectangle).`));
   }
   const blank = new Uint8Array(rows * cols);
   for (let i = 0; i < rows; i++) {
@@ -126,7 +172,7 @@ export interface Vector {
 export function vectorOf(r: RangeArg): Vector {
   const byRow = r.cols === 1;
   if (r.rows > 1 && r.cols > 1) {
-    fail(invalid(`${r.name} must be one column or one row (it has ${r.rows} rows and ${r.cols} columns).`));
+    fail(invalid(`${r.name} must be one column or one row (it has ${r.rows} rows and ${r.cols} columns): select a single column of measurements.`));
   }
   const length = byRow ? r.rows : r.cols;
   return {
@@ -151,8 +197,7 @@ export function keptRows(vectors: Vector[]): number[] {
   const n = vectors[0].length;
   for (const v of vectors) {
     if (v.length !== n) {
-      const cells = (m: number) => `${m} cell${m === 1 ? "" : "s"}`;
-      fail(notAvailable(`${vectors[0].name} has ${cells(n)} but ${v.name} has ${cells(v.length)}: give ranges of the same size, row for row.`));
+      fail(notAvailable(`${vectors[0].name} has ${count(n, "cell")} but ${v.name} has ${count(v.length, "cell")}: give ranges of the same size, row for row.`));
     }
   }
   const keep: number[] = [];
@@ -175,7 +220,7 @@ export function numbersAt(v: Vector, keep: number[]): Float64Array {
     }
     const c = readCell(raw);
     if (c.kind !== "number" || !Number.isFinite(c.value)) {
-      const header = keep[j] === 0 && c.kind === "text" ? " (leave the header out of the range)" : "";
+      const header = keep[j] === 0 && c.kind === "text" && !looksNumeric(c.value) ? " (leave the header out of the range)" : "";
       fail(invalid(`${v.name}, ${v.position(keep[j])}: ${describe(c)}${header}.`));
     }
     out[j] = c.value === 0 ? 0 : c.value; // −0 → 0
@@ -210,7 +255,7 @@ export function labelsAt(v: Vector, keep: number[]): Labels {
       key = shown.toLowerCase();
     } else {
       const what = c.kind === "logical" ? `${c.value ? "TRUE" : "FALSE"} is a logical value` : c.kind === "error" ? `the cell holds the error ${c.code}` : "the cell holds an unusable value";
-      fail(invalid(`${v.name}, ${v.position(keep[j])}: ${what}; group labels must be text or numbers.`));
+      fail(invalid(`${v.name}, ${v.position(keep[j])}: ${what}; group labels must be text or numbers: fix or clear that cell.`));
     }
     let code = index.get(key);
     if (code === undefined) {

@@ -8,10 +8,17 @@
  * shared runtime (`Excel.run`) and treats cells typed "Empty" as blank. Ranges without
  * a 0 need no read (null and "" are blank already), so most calls cost nothing extra.
  *
+ * Limits, each answered with #N/A and a plain message rather than counting blanks as
+ * zeros: Excel reported no address for a range holding zeros; the range lies in another
+ * workbook (its cells cannot be read from this one — a same-named sheet here must not
+ * stand in for it); the read failed (sheet renamed or deleted meanwhile, several areas)
+ * or came back in another shape. A huge range (a whole column) is narrowed to its used
+ * part before reading, so the read stays small (see {@link ExcelBlankReader}).
+ *
  * The reader is an interface so tests can use a fake; outside Excel (preview page,
  * vitest) there is no reader and blanks are the null / "" cells.
  */
-import { cellName, parseAddress } from "./address";
+import { RangeAddress, cellName, parseAddress } from "./address";
 import { SheetError, notAvailable } from "./errors";
 
 /** A grid with true where the cell is empty, same shape as the range. */
@@ -20,27 +27,111 @@ export type EmptyMask = boolean[][];
 export interface BlankReader {
   /** One mask per address, or null where that range could not be read. */
   readEmpty(addresses: string[]): Promise<(EmptyMask | null)[]>;
+  /** Name of the workbook the functions run in ("Book1.xlsx"), or null when unknown. */
+  workbookName?(): Promise<string | null>;
 }
 
-/** Reads `Range.valueTypes` through Office.js, all ranges in one round trip. */
+/** Ranges up to this many cells are read directly; larger ones only where the sheet is used. */
+export const DIRECT_READ_CELLS = 65_536;
+/**
+ * Cells of value types fetched per round trip from a large range (~2 MB of reply, under
+ * the 5 MB request/response cap of Excel on the web).
+ */
+export const READ_CHUNK_CELLS = 200_000;
+
+/**
+ * Reads `Range.valueTypes` through Office.js.
+ *
+ * Small ranges (≤ {@link DIRECT_READ_CELLS} cells) are read as they are, all in one round
+ * trip. A larger range — typically a whole-column reference, 1,048,576 rows of which a
+ * few hundred hold data — is first narrowed to its used part
+ * (`getUsedRangeOrNullObject(true)`, cells with values only): every cell outside that
+ * part is empty by definition, and the used part is read in chunks of at most
+ * {@link READ_CHUNK_CELLS} cells. Rows outside the used part share one all-empty row
+ * array, so the mask costs one pointer per row.
+ */
 export class ExcelBlankReader implements BlankReader {
   async readEmpty(addresses: string[]): Promise<(EmptyMask | null)[]> {
     const parsed = addresses.map((a) => parseAddress(a));
     try {
       return await Excel.run(async (context) => {
-        const ranges = parsed.map((p) => {
-          if (!p || p.sheet === "") return null;
-          const r = context.workbook.worksheets.getItem(p.sheet).getRange(p.range);
+        const sheets = parsed.map((p) => (p && p.sheet !== "" ? context.workbook.worksheets.getItem(p.sheet) : null));
+        const direct = parsed.map((p, i) => {
+          const ws = sheets[i];
+          if (!p || !ws || p.rows * p.cols > DIRECT_READ_CELLS) return null;
+          const r = ws.getRange(p.range);
           r.load("valueTypes");
           return r;
         });
+        const used = parsed.map((p, i) => {
+          const ws = sheets[i];
+          if (!p || !ws || p.rows * p.cols <= DIRECT_READ_CELLS) return null;
+          const u = ws.getRange(p.range).getUsedRangeOrNullObject(true);
+          u.load("address");
+          return u;
+        });
         await context.sync();
-        return ranges.map((r) => (r ? r.valueTypes.map((row) => row.map((t) => String(t) === "Empty")) : null));
+        const out: (EmptyMask | null)[] = [];
+        for (let i = 0; i < parsed.length; i++) {
+          const p = parsed[i];
+          const d = direct[i];
+          const u = used[i];
+          if (d) out.push(d.valueTypes.map((row) => row.map(isEmptyType)));
+          else if (p && u) out.push(await readLarge(context, sheets[i]!, p, u));
+          else out.push(null);
+        }
+        return out;
       });
     } catch {
       return parsed.map(() => null);
     }
   }
+
+  async workbookName(): Promise<string | null> {
+    try {
+      return await Excel.run(async (context) => {
+        context.workbook.load("name");
+        await context.sync();
+        return typeof context.workbook.name === "string" ? context.workbook.name : null;
+      });
+    } catch {
+      return null;
+    }
+  }
+}
+
+const isEmptyType = (t: unknown): boolean => String(t) === "Empty";
+
+/** The mask of a large range from its used part (see {@link ExcelBlankReader}). */
+async function readLarge(context: Excel.RequestContext, ws: Excel.Worksheet, p: RangeAddress, used: Excel.Range): Promise<EmptyMask | null> {
+  const emptyRow: boolean[] = new Array<boolean>(p.cols).fill(true);
+  const mask: EmptyMask = new Array<boolean[]>(p.rows).fill(emptyRow);
+  if (used.isNullObject) return mask;
+  const u = parseAddress(used.address);
+  if (!u) return null;
+  const top = Math.max(u.top, p.top);
+  const bottom = Math.min(u.top + u.rows, p.top + p.rows);
+  const left = Math.max(u.left, p.left);
+  const right = Math.min(u.left + u.cols, p.left + p.cols);
+  if (bottom <= top || right <= left) return mask;
+  const width = right - left;
+  const step = Math.max(1, Math.floor(READ_CHUNK_CELLS / width));
+  for (let r0 = top; r0 < bottom; r0 += step) {
+    const r1 = Math.min(bottom, r0 + step);
+    const chunk = ws.getRange(`${cellName(r0, left)}:${cellName(r1 - 1, right - 1)}`);
+    chunk.load("valueTypes");
+    await context.sync();
+    const types = chunk.valueTypes;
+    if (!Array.isArray(types) || types.length !== r1 - r0) return null;
+    for (let i = 0; i < types.length; i++) {
+      const row = emptyRow.slice();
+      const t = types[i];
+      if (!Array.isArray(t) || t.length !== width) return null;
+      for (let j = 0; j < width; j++) row[left - p.left + j] = isEmptyType(t[j]);
+      mask[r0 + i - p.top] = row;
+    }
+  }
+  return mask;
 }
 
 /** The reader used when running inside Excel: Office.js's, when `Excel.run` exists. */
@@ -113,7 +204,9 @@ export function readAddress(address: string, raw: unknown[][]): string {
  *
  * Rules: no reader (outside Excel) → no masks; a range without a 0 → no mask; a value
  * that is not a reference (address "") → no mask (a computed array has no blank cells);
- * Excel gave no addresses at all → error; the read failed or changed shape → error.
+ * Excel gave no address for it (no addresses at all, or none at its position) → error;
+ * a range in another workbook (its cells cannot be read from here) → error; the read
+ * failed or changed shape → error.
  */
 export async function emptyMasks(
   args: unknown[],
@@ -126,15 +219,26 @@ export async function emptyMasks(
   const wanted: number[] = [];
   for (const i of indices) {
     if (!Array.isArray(args[i]) || !holdsZero(args[i])) continue;
-    if (ctx.addresses === undefined) {
+    const a = ctx.addresses?.[i];
+    if (typeof a !== "string") {
       return notAvailable(
         `${names[i]} holds zeros, and this version of Excel does not report where arguments come from, so blank cells cannot be told from zeros; update Excel, or fill the blank cells.`,
       );
     }
-    const a = ctx.addresses[i];
-    if (typeof a === "string" && a.trim() !== "") wanted.push(i);
+    if (a.trim() !== "") wanted.push(i);
   }
   if (wanted.length === 0) return masks;
+  const books = wanted.map((i) => parseAddress(ctx.addresses![i])?.book ?? "");
+  if (books.some((b) => b !== "")) {
+    const here = ctx.reader.workbookName ? await ctx.reader.workbookName() : null;
+    for (let w = 0; w < wanted.length; w++) {
+      if (books[w] !== "" && (here === null || !sameWorkbook(books[w], here))) {
+        return notAvailable(
+          `${names[wanted[w]]} is in another workbook ([${books[w]}]), where a blank cell and a 0 cannot be told apart; copy the data into this workbook, or fill the blank cells.`,
+        );
+      }
+    }
+  }
   const read = await ctx.reader.readEmpty(wanted.map((i) => readAddress(ctx.addresses![i], args[i] as unknown[][])));
   for (let w = 0; w < wanted.length; w++) {
     const i = wanted[w];
@@ -147,4 +251,11 @@ export async function emptyMasks(
     masks[i] = m;
   }
   return masks;
+}
+
+/** "Book1.xlsx" and "Book1" (an unsaved or extension-less name) are the same workbook; case is ignored. */
+export function sameWorkbook(a: string, b: string): boolean {
+  const norm = (s: string) => s.trim().toLowerCase();
+  const bare = (s: string) => norm(s).replace(/\.[a-z0-9]{3,4}$/, "");
+  return norm(a) === norm(b) || bare(a) === bare(b);
 }

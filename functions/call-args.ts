@@ -2,7 +2,7 @@
  * The arguments of one call, by position, with their parameter names (for messages),
  * blank masks and addresses; and the common data shapes built from them.
  */
-import { Labels, RangeArg, Vector, columnsOf, keptRows, labelsAt, numbersAt, rangeArg, vectorOf } from "./args";
+import { Labels, RangeArg, count, Vector, columnsOf, keptRows, labelsAt, numbersAt, rangeArg, vectorOf } from "./args";
 import { EmptyMask } from "./blanks";
 import { fail, notAvailable } from "./errors";
 
@@ -33,7 +33,7 @@ export function sample(a: CallArgs, i: number, min: number): Float64Array {
   const v = a.vector(i);
   const x = numbersAt(v, keptRows([v]));
   if (x.length < min) {
-    fail(notAvailable(`${v.name} has ${x.length} number${x.length === 1 ? "" : "s"} after blank cells are dropped; it needs at least ${min}.`));
+    fail(notAvailable(`${v.name} has ${count(x.length, "number")} after blank cells are dropped; it needs at least ${min}: add values or select a larger range.`));
   }
   return x;
 }
@@ -46,7 +46,7 @@ export function paired(a: CallArgs, i: number, j: number, min: number): { x: Flo
   const x = numbersAt(u, keep);
   const y = numbersAt(v, keep);
   if (x.length < min) {
-    fail(notAvailable(`${u.name} and ${v.name} have ${x.length} complete row${x.length === 1 ? "" : "s"} (both cells filled); at least ${min} are needed.`));
+    fail(notAvailable(`${u.name} and ${v.name} have ${count(x.length, "complete row")} (both cells filled); at least ${min} are needed: fill the missing cells or select larger ranges.`));
   }
   return { x, y };
 }
@@ -54,6 +54,11 @@ export function paired(a: CallArgs, i: number, j: number, min: number): { x: Flo
 export interface Grouped {
   values: Float64Array;
   labels: Labels;
+}
+
+/** The message for ranges that share no complete row. */
+export function noCompleteRow(valuesName: string, groupsName: string): string {
+  return `no row has both ${valuesName} and ${groupsName} filled in: check that the two ranges cover the same rows.`;
 }
 
 function groupNames(l: Labels): string {
@@ -77,14 +82,14 @@ export function grouped(a: CallArgs, vi: number, gi: number, minPerGroup = 1): G
 
 /** The group-count checks of {@link grouped}, for callers that build labels themselves. */
 export function checkGroups(labels: Labels, valuesName: string, groupsName: string, minPerGroup = 1): void {
-  if (labels.k === 0) fail(notAvailable(`no row has both ${valuesName} and ${groupsName} filled in.`));
+  if (labels.k === 0) fail(notAvailable(noCompleteRow(valuesName, groupsName)));
   if (labels.k < 2) {
     fail(notAvailable(`${groupsName} has a single group (${groupNames(labels)}) once blank rows are dropped; give at least two groups.`));
   }
   let big = 0;
   for (let g = 0; g < labels.k; g++) {
     if (labels.sizes[g] < minPerGroup) {
-      fail(notAvailable(`group '${labels.names[g]}' has ${labels.sizes[g]} value${labels.sizes[g] === 1 ? "" : "s"}; each group needs at least ${minPerGroup}.`));
+      fail(notAvailable(`group '${labels.names[g]}' has ${count(labels.sizes[g], "value")}; each group needs at least ${minPerGroup}: add values to it or leave it out of the ranges.`));
     }
     if (labels.sizes[g] >= 2) big++;
   }

@@ -12,7 +12,8 @@
  *  - `#DIV/0!` the statistic divides by a zero spread (e.g. every value equal);
  *  - `#NUM!`   a result that is not a finite number for another reason.
  */
-export type SheetErrorCode = "#VALUE!" | "#N/A" | "#NUM!" | "#DIV/0!" | "#REF!";
+/** The codes a sheet function returns (#REF! and #NAME? can arrive as inputs but are not valid outputs). */
+export type SheetErrorCode = "#VALUE!" | "#N/A" | "#NUM!" | "#DIV/0!";
 
 export class SheetError {
   readonly code: SheetErrorCode;

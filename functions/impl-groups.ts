@@ -7,6 +7,7 @@ import { kruskalWallis, permutationKW } from "../src/kruskal";
 import { OneWayF, permutationF } from "../src/oneway";
 import { PermutationResult } from "../src/permutation";
 import { distanceRatio, permutationSNR } from "../src/snr";
+import { allEqual } from "./args";
 import { CallArgs, grouped } from "./call-args";
 import { divByZero } from "./errors";
 import { histogramTable } from "./histogram";
@@ -110,9 +111,4 @@ export function groupStat(a: { statistic: GroupStatistic; values: Float64Array; 
 export function groupNull(a: GroupNullArgs, onProgress?: Progress): SheetResult {
   const r = permutation(a, true, onProgress);
   return histogramTable(r.nullDistribution ?? new Float64Array(0), r.statistic, a.bins);
-}
-
-function allEqual(x: ArrayLike<number>): boolean {
-  for (let i = 1; i < x.length; i++) if (x[i] !== x[0]) return false;
-  return true;
 }

@@ -4,6 +4,7 @@
  * estimate | lower | upper, so a column of calls lines up under one header.
  */
 import { bootstrapDiffInterval, bootstrapInterval } from "../src/bootstrap";
+import { mean } from "../src/summary";
 import { CallArgs, sample } from "./call-args";
 import { divByZero, fail } from "./errors";
 import { Job, SheetResult } from "./job";
@@ -28,12 +29,6 @@ export interface IntervalArgs {
   method: MethodWord;
   resamples: number;
   seed: number;
-}
-
-function mean(x: Float64Array): number {
-  let s = 0;
-  for (let i = 0; i < x.length; i++) s += x[i];
-  return s / x.length;
 }
 
 /** INTERVAL(values, [statistic], [level], [method], [resamples], [seed]) */

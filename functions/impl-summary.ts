@@ -4,7 +4,7 @@
  */
 import { describeGroups } from "../src/summary";
 import { keptRows, labelsAt, numbersAt } from "./args";
-import { CallArgs } from "./call-args";
+import { CallArgs, noCompleteRow } from "./call-args";
 import { fail, notAvailable } from "./errors";
 import { Job, ResultCell, SheetResult } from "./job";
 
@@ -23,7 +23,7 @@ export function prepareSummary(a: CallArgs): Job {
   const keep = keptRows([v, g]);
   const values = numbersAt(v, keep);
   const labels = labelsAt(g, keep);
-  if (labels.k === 0) fail(notAvailable(`no row has both values and groups filled in.`));
+  if (labels.k === 0) fail(notAvailable(noCompleteRow(v.name, g.name)));
   const args: SummaryArgs = { values, codes: labels.codes, names: labels.names };
   return { op: "summary", args, cost: values.length };
 }

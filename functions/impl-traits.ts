@@ -4,7 +4,7 @@
  * standardized first by default (src/multivariate.ts), p from relabelling the groups.
  */
 import { permanova } from "../src/multivariate";
-import { keptRows, labelsAt, numbersAt } from "./args";
+import { allEqual, count, keptRows, labelsAt, numbersAt } from "./args";
 import { CallArgs, checkGroups } from "./call-args";
 import { fail, notAvailable } from "./errors";
 import { Job, SheetResult } from "./job";
@@ -31,19 +31,15 @@ export function prepareTraitTest(a: CallArgs): Job {
   const g = a.vector(1);
   if (block.rows !== g.length) {
     const hint = block.cols === g.length ? " Put one row per plot or sample and one column per trait." : "";
-    const rows = `${block.rows} row${block.rows === 1 ? "" : "s"}`;
-    const cells = `${g.length} cell${g.length === 1 ? "" : "s"}`;
-    fail(notAvailable(`traits has ${rows} but groups has ${cells}: give one group label per row of traits.${hint}`));
+    fail(notAvailable(`traits has ${count(block.rows, "row")} but groups has ${count(g.length, "cell")}: give one group label per row of traits.${hint}`));
   }
   const columns = a.columns(0);
   const keep = keptRows([...columns, g]);
   const traits = columns.map((c) => numbersAt(c, keep));
   const labels = labelsAt(g, keep);
   checkGroups(labels, "traits", g.name);
-  if (keep.length <= labels.k) fail(notAvailable(`there are ${keep.length} complete rows for ${labels.k} groups; more rows than groups are needed.`));
-  let spread = false;
-  for (const t of traits) for (let i = 1; i < t.length && !spread; i++) if (t[i] !== t[0]) spread = true;
-  if (!spread) fail(notAvailable("every trait has the same value in every complete row: there is nothing to compare."));
+  if (keep.length <= labels.k) fail(notAvailable(`there are ${keep.length} complete rows for ${labels.k} groups; more rows than groups are needed: add rows (plots or samples) or fill the blank cells.`));
+  if (traits.every((t) => allEqual(t))) fail(notAvailable("every trait has the same value in every complete row, so there is nothing to compare: check that traits covers the measured columns."));
   const args: TraitTestArgs = { traits, codes: labels.codes, k: labels.k, scale, resamples, seed };
   return { op: "traits.test", args, cost: keep.length * traits.length * resamples };
 }

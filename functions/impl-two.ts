@@ -6,6 +6,7 @@
 import { correlationTest } from "../src/correlation";
 import { pairedTest } from "../src/paired";
 import { twoSampleTest } from "../src/twosample";
+import { allEqual } from "./args";
 import { CallArgs, paired, sample } from "./call-args";
 import { divByZero, fail, notAvailable } from "./errors";
 import { Job, SheetResult } from "./job";
@@ -36,7 +37,7 @@ export function prepareTwoTest(a: CallArgs): Job {
   const min = statistic === "t" ? 2 : 1;
   const x = sample(a, 0, min);
   const y = sample(a, 1, min);
-  if (x.length + y.length < 3) fail(notAvailable("values1 and values2 together need at least three numbers."));
+  if (x.length + y.length < 3) fail(notAvailable("values1 and values2 together need at least three numbers: add values to either sample."));
   const args: TwoTestArgs = { statistic, x, y, direction, resamples, seed };
   return { op: "two.test", args, cost: (x.length + y.length) * resamples };
 }
@@ -70,11 +71,6 @@ export interface CorrTestArgs extends Resampling {
   y: Float64Array;
 }
 
-function constant(x: Float64Array): boolean {
-  for (let i = 1; i < x.length; i++) if (x[i] !== x[0]) return false;
-  return true;
-}
-
 /** CORRTEST(x, y, [method], [direction], [resamples], [seed]) */
 export function prepareCorrTest(a: CallArgs): Job {
   const method = optionWord("method", a.raw(2), CORRELATION_METHODS);
@@ -82,8 +78,8 @@ export function prepareCorrTest(a: CallArgs): Job {
   const resamples = resamplesOption(a.raw(4));
   const seed = seedOption(a.raw(5));
   const { x, y } = paired(a, 0, 1, 3);
-  if (constant(x) || constant(y)) {
-    fail(divByZero(`${constant(x) ? "x" : "y"} has the same value in every complete row, so the correlation is undefined.`));
+  if (allEqual(x) || allEqual(y)) {
+    fail(divByZero(`${allEqual(x) ? "x" : "y"} has the same value in every complete row, so the correlation is undefined.`));
   }
   const args: CorrTestArgs = { method, x, y, direction, resamples, seed };
   return { op: "corr.test", args, cost: x.length * resamples };

@@ -40,10 +40,10 @@ function scalar(name: string, raw: unknown): Scalar {
       fail(invalid(`${name} cannot be ${c.value ? "TRUE" : "FALSE"}; leave it empty for the default.`));
     // eslint-disable-next-line no-fallthrough
     case "error":
-      fail(invalid(`${name} holds the error ${c.code}.`));
+      fail(invalid(`${name} holds the error ${c.code}; fix that cell, or leave ${name} empty for the default.`));
     // eslint-disable-next-line no-fallthrough
     default:
-      fail(invalid(`${name} holds a value that cannot be used.`));
+      fail(invalid(`${name} holds a value that cannot be used; give a number or a word, or leave ${name} empty for the default.`));
   }
 }
 

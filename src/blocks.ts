@@ -42,6 +42,7 @@ export interface BlockedF {
  * The blocked layout: observations reordered so that each block is a contiguous
  * segment (as {@link BlockScheme} requires), with everything that stays fixed under
  * within-block shuffles precomputed.
+ * Intra-block analysis of Yates (1936); John & Williams (1995).
  */
 export class BlockedLayout {
   readonly n: number;
@@ -236,6 +237,7 @@ export function pseudoInverse(a: Float64Array, k: number): { inverse: Float64Arr
  * file comment), with its classical p-value from jstat's F distribution. Works for
  * complete, unbalanced and incomplete blocks; raises a RangeError when treatments are
  * not estimable within blocks or no residual degrees of freedom remain.
+ * Yates (1936); John & Williams (1995).
  */
 export function blockedF(
   values: ArrayLike<number>,

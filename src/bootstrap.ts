@@ -277,6 +277,7 @@ export function bcaLevel(z0: number, a: number, z: number): number {
 /**
  * Quantile of sorted replicates at probability p: order statistic at position (B + 1)p,
  * linear interpolation between neighbours, clamped (with a note) outside [1, B].
+ * Davison & Hinkley (1997), §5.2.
  */
 export function quantile(sorted: Float64Array, p: number, notes?: string[]): number {
   const B = sorted.length;
@@ -566,7 +567,9 @@ function meanOf(x: ArrayLike<number>): number {
   return s / x.length;
 }
 
-/** Median of values sorted ascending (average of the two middle values when n is even). */
+/** Median of values sorted ascending (average of the two middle values when n is even).
+ * Sample median (Hyndman & Fan 1996, type 7 at p = ½).
+ */
 export function medianSorted(s: ArrayLike<number>): number {
   const n = s.length;
   const h = n >> 1;
@@ -627,7 +630,7 @@ function trimmedFromCounts(s: Float64Array, counts: Int32Array, trim: number): n
   return t / (n - 2 * g);
 }
 
-/** Leave-one-out means (S − xᵢ)/(n − 1), O(n). */
+/** Leave-one-out means (S − xᵢ)/(n − 1), O(n). Jackknife values (Quenouille 1949; Efron & Tibshirani 1993, §11.2). */
 export function leaveOneOutMeans(x: ArrayLike<number>): Float64Array {
   const n = x.length;
   const m = meanOf(x);
@@ -637,7 +640,9 @@ export function leaveOneOutMeans(x: ArrayLike<number>): Float64Array {
   return out;
 }
 
-/** Leave-one-out medians of a sorted sample (one per sorted position), O(n). */
+/** Leave-one-out medians of a sorted sample (one per sorted position), O(n).
+ * Jackknife values (Efron & Tibshirani 1993, §11.2).
+ */
 export function leaveOneOutMedians(s: Float64Array): Float64Array {
   const n = s.length;
   const out = new Float64Array(n);
@@ -651,7 +656,9 @@ export function leaveOneOutMedians(s: Float64Array): Float64Array {
   return out;
 }
 
-/** Leave-one-out trimmed means of a sorted sample, O(n) with prefix sums. */
+/** Leave-one-out trimmed means of a sorted sample, O(n) with prefix sums.
+ * Jackknife values (Efron & Tibshirani 1993, §11.2).
+ */
 export function leaveOneOutTrimmed(s: Float64Array, trim = TRIM): Float64Array {
   const n = s.length;
   const prefix = new Float64Array(n + 1);

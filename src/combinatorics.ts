@@ -7,6 +7,7 @@
  * n! / (n1! n2! … nk!), computed as a product of binomial coefficients. Returns
  * Infinity as soon as the count exceeds `cap` (default 2^53), so callers can compare it
  * with the requested resamples without overflow.
+ * Multinomial coefficient as a product of binomials (Knuth 1997, TAOCP 1, §1.2.6).
  */
 export function multinomialCount(sizes: ArrayLike<number>, cap = 9007199254740992): number {
   let total = 0;
@@ -22,7 +23,9 @@ export function multinomialCount(sizes: ArrayLike<number>, cap = 900719925474099
   return Math.round(count);
 }
 
-/** Binomial coefficient C(n, k) as a double (exact while below 2^53). */
+/** Binomial coefficient C(n, k) as a double (exact while below 2^53).
+ * Multiplicative formula (Knuth 1997, TAOCP 1, §1.2.6).
+ */
 export function binomial(n: number, k: number): number {
   if (k < 0 || k > n) return 0;
   k = Math.min(k, n - k);

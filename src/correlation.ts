@@ -48,6 +48,7 @@ export function pearson(x: ArrayLike<number>, y: ArrayLike<number>): number {
  * compares |r|; "greater" tests positive association, "less" negative. `statistic`
  * and `r` are the observed coefficient; `nullDistribution` (when kept) holds r values.
  * Needs at least two pairs and neither column constant.
+ * Permutation test of Pitman (1937); Spearman (1904) on mid-ranks.
  */
 export function correlationTest(
   x: ArrayLike<number>,
@@ -101,7 +102,9 @@ export function correlationTest(
     for (let i = 0; i < n; i++) s += fixed[i] * moving[lab[i]];
     return n * s - base;
   };
-  const res = permutationTest(scheme, stat, options);
+  // n·Σ xy and Σx·Σy (shifted, both ≥ 0) are of the size of `base`: the scale of the
+  // rounding noise, so a zero covariance ties with zero.
+  const res = permutationTest(scheme, stat, options, base);
   let nullDistribution: Float64Array | undefined;
   if (res.nullDistribution) {
     // n·S_xy → r: divide by n·√(S_xx S_yy), both fixed.

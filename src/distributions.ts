@@ -35,6 +35,7 @@ function stirlingRemainder(x: number): number {
  * lnΓ(a) − lnΓ(a + b) is taken from Stirling's series in the cancellation-free form
  * −(a − ½) log1p(b/a) − b ln(a + b) + b + δ(a) − δ(a + b), so huge degrees of freedom
  * keep full accuracy.
+ * Stirling series: Abramowitz & Stegun (1964), §6.1.
  */
 export function lnBeta(a: number, b: number): number {
   const big = Math.max(a, b);
@@ -47,7 +48,9 @@ export function lnBeta(a: number, b: number): number {
   return 0.5 * Math.log(2 * Math.PI) + (small - 0.5) * Math.log(small) - small + stirlingRemainder(small) + bracket;
 }
 
-/** Regularized lower incomplete gamma P(a, x) and upper Q(a, x) = 1 − P, each computed on its accurate side. */
+/** Regularized lower incomplete gamma P(a, x) and upper Q(a, x) = 1 − P, each computed on its accurate side.
+ * Press et al. (1992), §6.2.
+ */
 export function gammaRegularized(a: number, x: number): { lower: number; upper: number } {
   if (!(a > 0) || x !== x) return { lower: NaN, upper: NaN };
   if (x <= 0) return { lower: 0, upper: 1 };
@@ -121,6 +124,7 @@ function betaFraction(x: number, a: number, b: number): number {
 /**
  * Regularized incomplete beta: lower = I_x(a, b), upper = 1 − I_x(a, b) = I_y(b, a),
  * where y = 1 − x is passed separately so callers can form it without cancellation.
+ * Press et al. (1992), §6.4.
  */
 export function betaRegularized(x: number, y: number, a: number, b: number): { lower: number; upper: number } {
   if (!(a > 0) || !(b > 0) || x !== x || y !== y) return { lower: NaN, upper: NaN };
@@ -137,12 +141,12 @@ export function betaRegularized(x: number, y: number, a: number, b: number): { l
   return { lower: 1 - upper, upper };
 }
 
-/** P(χ²_df ≥ x). */
+/** P(χ²_df ≥ x). Q(df/2, x/2) (Abramowitz & Stegun 1964, §26.4). */
 export function chiSquareUpper(x: number, df: number): number {
   return gammaRegularized(df / 2, x / 2).upper;
 }
 
-/** P(F_{d1,d2} ≥ f) = I_{d2/(d2 + d1 f)}(d2/2, d1/2). */
+/** P(F_{d1,d2} ≥ f) = I_{d2/(d2 + d1 f)}(d2/2, d1/2). Abramowitz & Stegun (1964), §26.6. */
 export function fUpper(f: number, d1: number, d2: number): number {
   if (f !== f) return NaN;
   if (f <= 0) return 1;
@@ -173,21 +177,23 @@ export function tUpper(t: number, df: number): number {
   return t >= 0 ? half : 1 - half;
 }
 
-/** P(Z ≥ z) for a standard normal Z (via Q(1/2, z²/2)). */
+/** P(Z ≥ z) for a standard normal Z (via Q(1/2, z²/2)). Abramowitz & Stegun (1964), §26.2. */
 export function normalUpper(z: number): number {
   if (z !== z) return NaN;
   const g = gammaRegularized(0.5, (z * z) / 2);
   return z >= 0 ? 0.5 * g.upper : 0.5 + 0.5 * g.lower;
 }
 
-/** p-value of an observed t: "greater" P(T ≥ t), "less" P(T ≤ t), two-sided P(|T| ≥ |t|). */
+/** p-value of an observed t: "greater" P(T ≥ t), "less" P(T ≤ t), two-sided P(|T| ≥ |t|). Student (1908). */
 export function tPValue(t: number, df: number, direction: Direction): number {
   if (direction === "greater") return tUpper(t, df);
   if (direction === "less") return tUpper(-t, df);
   return Math.min(1, 2 * tUpper(Math.abs(t), df));
 }
 
-/** p-value of an observed z: "greater" P(Z ≥ z), "less" P(Z ≤ z), two-sided P(|Z| ≥ |z|). */
+/** p-value of an observed z: "greater" P(Z ≥ z), "less" P(Z ≤ z), two-sided P(|Z| ≥ |z|).
+ * Standard normal tails (Abramowitz & Stegun 1964, §26.2).
+ */
 export function normalPValue(z: number, direction: Direction): number {
   if (direction === "greater") return normalUpper(z);
   if (direction === "less") return normalUpper(-z);

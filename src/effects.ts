@@ -13,12 +13,14 @@ import { jStat } from "jstat";
 import { BootstrapOptions, BootstrapResult, bootstrapDiffInterval } from "./bootstrap";
 import { Rng } from "./random";
 
-/** Difference of means x̄ − ȳ with a bootstrap interval (resampling inside each group; BCa by default). */
+/** Difference of means x̄ − ȳ with a bootstrap interval (resampling inside each group; BCa by default).
+ * Efron & Tibshirani (1993), §8.3; Efron (1987).
+ */
 export function differenceOfMeans(x: ArrayLike<number>, y: ArrayLike<number>, options: BootstrapOptions = {}): BootstrapResult {
   return bootstrapDiffInterval(x, y, "mean", options);
 }
 
-/** Difference of medians with a bootstrap interval (resampling inside each group). */
+/** Difference of medians with a bootstrap interval (resampling inside each group). Efron & Tibshirani (1993), §8.3. */
 export function differenceOfMedians(x: ArrayLike<number>, y: ArrayLike<number>, options: BootstrapOptions = {}): BootstrapResult {
   return bootstrapDiffInterval(x, y, "median", options);
 }
@@ -26,6 +28,7 @@ export function differenceOfMedians(x: ArrayLike<number>, y: ArrayLike<number>, 
 /**
  * Mean of x as a percentage of the mean of a reference (check) group, 100·x̄/ȳ, with a
  * bootstrap interval (resampling inside each group) — the "% of check" of variety trials.
+ * Efron & Tibshirani (1993), §8.3; Efron (1987).
  */
 export function percentOfReference(x: ArrayLike<number>, reference: ArrayLike<number>, options: BootstrapOptions = {}): BootstrapResult {
   return bootstrapDiffInterval(x, reference, "ratio", options);
@@ -174,6 +177,7 @@ export class DifferenceSelector {
     return this.x[i] - this.yd[j];
   }
 
+  /** k-th smallest difference (1-based), Monahan (1984)-style selection; RangeError outside 1 … n·m. */
   kth(k: number): number {
     const { n, m, lo, hi, less, leq } = this;
     if (!(k >= 1 && k <= n * m)) throw new RangeError("rank out of range");

@@ -114,6 +114,7 @@ export function friedman(
  * relabellings with χ²_F at least the observed (direction "greater"). Exact over all
  * (kT!)^kB arrangements when at most `resamples`, else Monte Carlo with
  * p = (b + 1)/(m + 1). Same completeness rule as {@link friedman}.
+ * Friedman (1937); within-block permutation as in Fisher (1935), ch. V.
  */
 export function permutationFriedman(
   values: ArrayLike<number>,
@@ -149,6 +150,7 @@ export function permutationFriedman(
  * Mean of the values in each block × treatment cell, as inputs for {@link friedman} when
  * cells hold replicates: returns one value per non-empty cell with its codes (cells in
  * block-major order). Empty cells are left out, so {@link friedman} then reports them.
+ * Cell means of a two-way layout (Friedman 1937 ranks one value per cell).
  */
 export function cellMeans(
   values: ArrayLike<number>,

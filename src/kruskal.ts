@@ -11,13 +11,18 @@
  * Σ_g R_g² / n_g: the permutation test compares that quantity from the group rank sums.
  */
 import { chiSquareUpper } from "./distributions";
+import { canonicalRows } from "./groups";
 import { PermutationOptions, PermutationResult, groupSumsTest } from "./permutation";
 import { midranks, tieSum } from "./ranks";
 
 /** Group sizes of codes 0..k−1; RangeError if fewer than two groups have observations. */
 function groupSizes(codes: ArrayLike<number>, k: number): Float64Array {
   const sizes = new Float64Array(k);
-  for (let i = 0; i < codes.length; i++) sizes[codes[i]]++;
+  for (let i = 0; i < codes.length; i++) {
+    const c = codes[i];
+    if (!(Number.isInteger(c) && c >= 0 && c < k)) throw new RangeError(`group code ${i + 1} is outside 0..${k - 1}`);
+    sizes[c]++;
+  }
   let used = 0;
   for (let g = 0; g < k; g++) if (sizes[g] > 0) used++;
   if (used < 2) throw new RangeError("the rank test needs at least two groups with values");
@@ -68,6 +73,7 @@ export function kruskalWallis(values: ArrayLike<number>, codes: ArrayLike<number
  * labellings when there are at most `resamples` of them, else Monte Carlo with
  * p = (b + 1)/(m + 1). H depends on the data only through the rank sums, so each
  * relabelling costs O(n) (random partition) — see groupSumsTest.
+ * Kruskal & Wallis (1952); permutation form as in Pitman (1937).
  */
 export function permutationKW(
   values: ArrayLike<number>,
@@ -76,7 +82,9 @@ export function permutationKW(
   options: PermutationOptions = {},
 ): PermutationResult & { h: number } {
   const { ranks, between, fromBetween, h } = layout(values, codes, k);
-  const result = groupSumsTest(ranks, codes, k, between, { ...options, direction: "greater" });
+  // Rows in canonical order, so the Monte Carlo p does not depend on the order of the rows.
+  const rows = canonicalRows(ranks, codes);
+  const result = groupSumsTest(rows.values, rows.codes, k, between, { ...options, direction: "greater" });
   const obs = new Float64Array(k);
   for (let i = 0; i < codes.length; i++) obs[codes[i]] += ranks[i];
   const hObs = h(obs);

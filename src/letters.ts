@@ -19,6 +19,7 @@ import { PairwiseRow } from "./pairwise";
  * Letters for each group (in the input order of names). `differs(i, j)` says whether
  * groups i and j (indices into names) are declared different; it is asked once per pair
  * with i < j.
+ * Insert–absorb with sweeping (Piepho 2004).
  */
 export function compactLetters(names: string[], means: number[], differs: (i: number, j: number) => boolean): string[] {
   const k = names.length;
@@ -118,7 +119,7 @@ function sweep(columns: Uint8Array[], groupOrder: number[]): Uint8Array[] {
   return cols;
 }
 
-/** Symbol of the c-th letter: a–z, A–Z, then the same with primes. */
+/** Symbol of the c-th letter: a–z, A–Z, then the same with primes. (Naming only; Piepho 2004 uses a, b, c, ….) */
 export function letterSymbol(c: number): string {
   const base = "abcdefghijklmnopqrstuvwxyzABCDEFGHIJKLMNOPQRSTUVWXYZ";
   return base[c % base.length] + "′".repeat(Math.floor(c / base.length));
@@ -127,6 +128,7 @@ export function letterSymbol(c: number): string {
 /**
  * Letters from pairwise comparisons: groups i and j differ when the row for the pair
  * has pAdjusted ≤ alpha. Every pair of names must have a row (in either order).
+ * Piepho (2004).
  */
 export function lettersFromPairwise(names: string[], means: number[], rows: PairwiseRow[], alpha = 0.05): string[] {
   if (!(alpha > 0 && alpha < 1)) throw new RangeError(`alpha must be between 0 and 1, e.g. 0.05 (got ${alpha})`);

@@ -166,6 +166,7 @@ function squaredDistances(prep: Prepared): Float64Array {
  * PERMANOVA on a given n × n matrix of squared distances (row-major, symmetric, zero
  * diagonal): the distance matrix is used as is, and each relabelling sums the squared
  * distances within groups, O(Σ n_g²). The test statistic is −SSW (monotone in pseudo-F).
+ * Anderson (2001); McArdle & Anderson (2001).
  */
 export function permanovaFromDistances(
   squared: Float64Array,

@@ -12,6 +12,7 @@ import { PermutationOptions, PermutationResult, groupSumsTest } from "./permutat
  * Precomputed one-way layout for repeated evaluation under relabelling. Values are
  * centred on their mean first, so SSB = Σ_g S_g²/n_g of the centred values, free of the
  * cancellation in Σ S_g²/n_g − S²/n when the data sit far from 0.
+ * Fisher (1925).
  */
 export class OneWayF {
   /** Values minus their mean. */
@@ -25,9 +26,22 @@ export class OneWayF {
   constructor(values: ArrayLike<number>, codes: ArrayLike<number>, k: number) {
     this.n = values.length;
     this.k = k;
+    if (codes.length !== this.n) throw new RangeError(`values and group codes differ in length (${this.n} and ${codes.length})`);
     let s = 0;
-    for (let i = 0; i < this.n; i++) s += values[i];
-    const mean = s / this.n;
+    let min = Infinity;
+    let max = -Infinity;
+    for (let i = 0; i < this.n; i++) {
+      const v = values[i];
+      if (!Number.isFinite(v)) throw new RangeError(`value ${i + 1} is not a finite number`);
+      const c = codes[i];
+      if (!(Number.isInteger(c) && c >= 0 && c < k)) throw new RangeError(`group code ${i + 1} is outside 0..${k - 1}`);
+      s += v;
+      if (v < min) min = v;
+      if (v > max) max = v;
+    }
+    // Equal values centre to exactly 0 (their rounded mean may miss the value by an ulp,
+    // which would leave SST tiny but positive and F = Infinity).
+    const mean = min === max ? min : s / this.n;
     this.centred = Float64Array.from(values, (v) => v - mean);
     const sizes = new Float64Array(k);
     for (let i = 0; i < codes.length; i++) sizes[codes[i]]++;
@@ -60,7 +74,11 @@ export class OneWayF {
   }
 }
 
-/** F = [SSB/(k−1)] / [(SST−SSB)/(n−k)]; Infinity when SSW is 0 (relative to SST) but SSB > 0. */
+/**
+ * F = [SSB/(k−1)] / [(SST−SSB)/(n−k)] (Fisher 1925); Infinity when SSW is 0 (relative to
+ * SST) but SSB > 0, and NaN (0/0) when SSB and SSW are both 0, i.e. all values are equal:
+ * callers report that case themselves (see {@link permutationF}).
+ */
 export function fFromSS(ssb: number, sst: number, n: number, k: number): number {
   const ssw = sst - ssb;
   if (ssw <= 1e-12 * sst) return ssb > 0 ? Infinity : NaN;
@@ -69,7 +87,10 @@ export function fFromSS(ssb: number, sst: number, n: number, k: number): number 
 
 /**
  * Permutation test of the one-way F (Fisher 1935; Pitman 1937): labels are shuffled
- * with group sizes fixed; p = share of relabellings with F at least the observed F.
+ * with group sizes fixed; p = share of relabellings with F at least the observed F
+ * (compared through SSB, direction "greater"). Needs two groups with values and finite
+ * values (RangeError otherwise). When all values are equal nothing varies: F is
+ * reported as 0 (as for blocks and PERMANOVA) and p = 1, never NaN.
  */
 export function permutationF(
   values: ArrayLike<number>,
@@ -78,8 +99,15 @@ export function permutationF(
   options: PermutationOptions = {},
 ): PermutationResult & { f: number } {
   const layout = new OneWayF(values, codes, k);
-  const result = groupSumsTest(layout.centred, codes, k, (sums) => layout.ssbFromSums(sums), { ...options, direction: "greater" });
-  const nullDistribution = result.nullDistribution?.map((q) => fFromSS(q, layout.sst, layout.n, k));
-  const f = layout.f(codes);
+  const sizes = new Int32Array(k);
+  for (let i = 0; i < codes.length; i++) sizes[codes[i]]++;
+  if (sizes.filter((m) => m > 0).length < 2) throw new RangeError("the F test needs at least two groups with values");
+  // Rows are laid out in their given order (a canonical order, as the rank tests use,
+  // would change the Monte Carlo draws of published results blocks); exact p does not
+  // depend on row order, the Monte Carlo p only in law.
+  const result = groupSumsTest(layout.centred, codes, k, (sums) => layout.ssbFromSums(sums), { ...options, direction: "greater" }, layout.sst);
+  const toF = (q: number) => (layout.sst > 0 ? fFromSS(q, layout.sst, layout.n, k) : 0);
+  const nullDistribution = result.nullDistribution?.map(toF);
+  const f = toF(layout.ssb(codes));
   return { ...result, statistic: f, f, nullDistribution };
 }

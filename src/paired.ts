@@ -18,6 +18,7 @@ import { PermutationOptions, PermutationResult, SignScheme, permutationTest } fr
  * all n differences (zeros included); `nonZero` is the number of differences flipped,
  * and `resamples` counts sign vectors of those (2^nonZero when exact). With every
  * difference zero, the mean difference is 0 and p = 1.
+ * Fisher (1935), §21.
  */
 export function pairedTest(
   x: ArrayLike<number>,
@@ -47,7 +48,10 @@ export function pairedTest(
     for (let i = 0; i < m; i++) s += signs[i] * d[i];
     return s;
   };
-  const r = permutationTest(scheme, stat, options);
+  // |S| ≤ Σ|dᵢ|: the scale of the rounding noise in S, so a zero sum is a tie with zero.
+  let scale = 0;
+  for (let i = 0; i < m; i++) scale += Math.abs(d[i]);
+  const r = permutationTest(scheme, stat, options, scale);
   const nullDistribution = r.nullDistribution?.map((s) => s / n);
   return { ...r, statistic: meanDifference, meanDifference, n, nonZero: m, nullDistribution };
 }

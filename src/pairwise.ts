@@ -7,7 +7,8 @@
  *    groups (./bootstrap; BCa by default).
  *  - Raw p: the pair's observations alone are relabelled (group sizes fixed), statistic
  *    the difference of means, two-sided with |difference| (Pitman 1937); exact when the
- *    C(n_a + n_b, n_a) splits are at most the requested resamples.
+ *    C(n_a + n_b, n_a) splits are at most the requested resamples. This is
+ *    {@link twoSampleTest} on the pair.
  *  - Adjustments: "holm" (Holm 1979) and "bh" (Benjamini & Hochberg 1995) on the raw p;
  *    "maxt": Westfall & Young (1993) max-T step-down from one set of relabellings of all
  *    observations among all k groups. The max-T statistic is the studentized difference
@@ -22,7 +23,8 @@
  */
 import { BootstrapOptions, IntervalMethod, bootstrapDiffInterval } from "./bootstrap";
 import { MaxTStepDown, benjaminiHochberg, holm } from "./multiplicity";
-import { GroupScheme, ResampleOptions, forEachRelabelling, groupSumsTest } from "./permutation";
+import { GroupScheme, ResampleOptions, forEachRelabelling } from "./permutation";
+import { twoSampleTest } from "./twosample";
 
 export type Adjust = "holm" | "maxt" | "bh" | "none";
 
@@ -50,7 +52,9 @@ export interface PairwiseRow {
   exact: boolean;
 }
 
-/** Pairwise comparisons of all groups (see the file comment for the methods). */
+/** Pairwise comparisons of all groups (see the file comment for the methods).
+ * Pitman (1937); Holm (1979); Benjamini & Hochberg (1995); Westfall & Young (1993).
+ */
 export function pairwiseComparisons(
   values: ArrayLike<number>,
   codes: ArrayLike<number>,
@@ -79,14 +83,10 @@ export function pairwiseComparisons(
       const xb = groups[b];
       const bootOptions: BootstrapOptions = { level: options.level, method: options.method, resamples, seed };
       const ci = bootstrapDiffInterval(xa, xb, "mean", bootOptions);
-      const pooled = new Float64Array(xa.length + xb.length);
-      pooled.set(xa);
-      pooled.set(xb, xa.length);
-      const labels = new Int32Array(pooled.length);
-      labels.fill(1, xa.length);
-      const ia = 1 / xa.length;
-      const ib = 1 / xb.length;
-      const test = groupSumsTest(pooled, labels, 2, (s) => s[0] * ia - s[1] * ib, {
+      // The two-group test itself (values shifted by their minimum, each sample sorted):
+      // no cancellation far from 0, and the row's p is RS.TWOTEST's for the same seed.
+      const test = twoSampleTest(xa, xb, {
+        statistic: "mean",
         resamples,
         seed,
         direction: "two-sided",
@@ -111,6 +111,7 @@ export function pairwiseComparisons(
  * Westfall–Young max-T step-down adjusted p for every pair (a < b, row order as in
  * {@link pairwiseComparisons}), from relabellings of all observations among the k groups
  * (exact enumeration when feasible). Statistic: studentized |difference of means|.
+ * Westfall & Young (1993), Algorithm 2.8; studentized as in Janssen (1997).
  */
 export function maxTPairwise(values: ArrayLike<number>, codes: ArrayLike<number>, k: number, options: ResampleOptions = {}): Float64Array {
   const n = values.length;

@@ -37,7 +37,9 @@ export interface Scheme {
   reset(): void;
 }
 
-/** Rearrangements of the whole label vector (k-sample designs, correlation). */
+/** Rearrangements of the whole label vector (k-sample designs, correlation).
+ * Fisher (1935); Pitman (1937). Enumerated with Knuth's Algorithm L, drawn by Fisher–Yates (Durstenfeld 1964).
+ */
 export class GroupScheme implements Scheme {
   readonly labels: Int32Array;
   private readonly original: Int32Array;
@@ -66,6 +68,7 @@ export class GroupScheme implements Scheme {
 /**
  * Rearrangements inside blocks. Observations must be ordered so that each block is a
  * contiguous segment; `starts` holds each block's first index plus a final n.
+ * Restricted randomization within blocks (Fisher 1935, ch. V).
  */
 export class BlockScheme implements Scheme {
   readonly labels: Int32Array;
@@ -104,7 +107,7 @@ export class BlockScheme implements Scheme {
   }
 }
 
-/** Sign flips of n paired differences; `signs[i]` is +1 or −1. */
+/** Sign flips of n paired differences; `signs[i]` is +1 or −1. Fisher (1935), §21. */
 export class SignScheme implements Scheme {
   readonly signs: Float64Array;
   constructor(n: number) {
@@ -143,7 +146,7 @@ export class SignScheme implements Scheme {
   }
 }
 
-/** Sizes of each label value 0..max in a label vector. */
+/** Sizes of each label value 0..max in a label vector. (Bookkeeping, no statistical method.) */
 export function labelSizes(labels: ArrayLike<number>): Int32Array {
   let k = 0;
   for (let i = 0; i < labels.length; i++) if (labels[i] + 1 > k) k = labels[i] + 1;
@@ -185,7 +188,7 @@ export interface PermutationResult {
   nullDistribution?: Float64Array;
 }
 
-/** Raised inside the engine when onProgress asks to cancel. */
+/** Raised inside the engine when onProgress asks to cancel. (Control flow, no statistical method.) */
 export class CancelledError extends Error {
   constructor() {
     super("cancelled");
@@ -193,19 +196,39 @@ export class CancelledError extends Error {
   }
 }
 
-const PROGRESS_EVERY = 16384;
+/** Relabellings between two calls of onProgress in the engine's loops. */
+export const PROGRESS_EVERY = 16384;
+
+/**
+ * The requested number of resamples (default 9999), checked: a whole number of at least 1.
+ * A fraction or NaN would otherwise make the loop bounds and the p = (b + 1)/(m + 1)
+ * denominator disagree.
+ * Phipson & Smyth (2010) for the role of m.
+ */
+export function resampleCount(options: ResampleOptions): number {
+  const m = options.resamples ?? 9999;
+  if (!Number.isInteger(m) || m < 1) throw new RangeError(`resamples must be a whole number of at least 1 (got ${m})`);
+  return m;
+}
+
+/** The observed statistic, checked: a NaN would count as extreme nowhere and give p = 0. */
+function checkObserved(observed: number): number {
+  if (observed !== observed) throw new RangeError("the statistic cannot be computed on these values (it is not a number)");
+  return observed;
+}
 
 /**
  * Visits relabellings of a scheme: every distinct one when there are at most
  * `resamples` (exact), else `resamples` random ones. `visit` reads the scheme's state.
  * The scheme is reset to the observed labelling afterwards.
+ * Exact: Fisher (1935); Monte Carlo: Dwass (1957).
  */
 export function forEachRelabelling(
   scheme: Scheme,
   visit: (index: number) => void,
   options: ResampleOptions = {},
 ): { exact: boolean; evaluated: number } {
-  const resamples = options.resamples ?? 9999;
+  const resamples = resampleCount(options);
   const total = scheme.count(resamples);
   const onProgress = options.onProgress;
   try {
@@ -231,45 +254,58 @@ export function forEachRelabelling(
   }
 }
 
-/** True when `t` is at least as extreme as `observed` in the given direction (ties count). */
-export function atLeastAsExtreme(t: number, observed: number, direction: Direction): boolean {
+/**
+ * True when `t` is at least as extreme as `observed` in the given direction, ties
+ * counting: "greater" t ≥ o − δ, "less" t ≤ o + δ, two-sided |t| ≥ |o| − δ, with
+ * δ = ε·max(|o|, scale), ε = {@link TIE_TOLERANCE} (ties count as "at least as extreme",
+ * Phipson & Smyth 2010). `scale` (default 0) is the size of the terms the statistic is
+ * computed from, for statistics built by cancellation (a difference of sums): their
+ * rounding noise is relative to the terms, not to an observed value near 0. An infinite
+ * observed value is matched only by the same infinity (δ is then 0, never ∞ − ∞).
+ */
+export function atLeastAsExtreme(t: number, observed: number, direction: Direction, scale = 0): boolean {
+  const a = Math.abs(observed);
+  const tol = a < Infinity ? TIE_TOLERANCE * (a > scale ? a : scale) : 0;
   switch (direction) {
     case "greater":
-      return t >= observed - TIE_TOLERANCE * Math.abs(observed);
+      return t >= observed - tol;
     case "less":
-      return t <= observed + TIE_TOLERANCE * Math.abs(observed);
-    default: {
-      const a = Math.abs(observed);
-      return Math.abs(t) >= a - TIE_TOLERANCE * a;
-    }
+      return t <= observed + tol;
+    default:
+      return Math.abs(t) >= a - tol;
   }
 }
 
 /**
  * Permutation test of a statistic under a scheme. `statistic()` must compute the value
  * for the scheme's current state; it is first called on the observed labelling.
- * Exact: p = count / total. Monte Carlo: p = (b + 1)/(m + 1) (Phipson & Smyth 2010).
+ * Exact: p = count / total (Fisher 1935). Monte Carlo: p = (b + 1)/(m + 1) (Phipson &
+ * Smyth 2010). `tieScale`: see {@link atLeastAsExtreme}.
  */
-export function permutationTest(scheme: Scheme, statistic: () => number, options: PermutationOptions = {}): PermutationResult {
+export function permutationTest(scheme: Scheme, statistic: () => number, options: PermutationOptions = {}, tieScale = 0): PermutationResult {
   const direction = options.direction ?? "two-sided";
-  const observed = statistic();
+  const resamples = resampleCount(options);
+  const observed = checkObserved(statistic());
   let count = 0;
   let kept: Float64Array | undefined;
-  const resamples = options.resamples ?? 9999;
   if (options.keepNull) kept = new Float64Array(Math.min(resamples, scheme.count(resamples)));
   const run = forEachRelabelling(
     scheme,
     (i) => {
       const t = statistic();
       if (kept) kept[i] = t;
-      if (atLeastAsExtreme(t, observed, direction)) count++;
+      if (atLeastAsExtreme(t, observed, direction, tieScale)) count++;
     },
     options,
   );
   return summarize(observed, count, run.evaluated, run.exact, direction, kept);
 }
 
-/** Builds the result object from counts (shared by tests that count by themselves). */
+/**
+ * Builds the result object from counts (shared by tests that count by themselves):
+ * exact p = count / evaluated (observed included in both), Monte Carlo
+ * p = (count + 1)/(evaluated + 1) (Phipson & Smyth 2010) with its Clopper–Pearson band.
+ */
 export function summarize(
   observed: number,
   count: number,
@@ -358,7 +394,9 @@ export class PartitionSampler {
   }
 }
 
-/** Group sums for a labelling, with the last group's sum as total minus the others (as the sampler does). */
+/** Group sums for a labelling, with the last group's sum as total minus the others (as the sampler does).
+ * (Bookkeeping for the sampler.)
+ */
 export function groupSums(values: ArrayLike<number>, codes: ArrayLike<number>, k: number, total: number, sums: Float64Array): void {
   sums.fill(0);
   for (let i = 0; i < codes.length; i++) sums[codes[i]] += values[i];
@@ -370,7 +408,8 @@ export function groupSums(values: ArrayLike<number>, codes: ArrayLike<number>, k
 /**
  * Permutation test of a statistic that depends on the data only through the group sums
  * (group sizes fixed). Exact enumeration over distinct labellings when feasible, else
- * Monte Carlo with {@link PartitionSampler}; p as in {@link permutationTest}.
+ * Monte Carlo with {@link PartitionSampler}; p and `tieScale` as in {@link permutationTest}.
+ * Pitman (1937); Phipson & Smyth (2010).
  */
 export function groupSumsTest(
   values: ArrayLike<number>,
@@ -378,17 +417,16 @@ export function groupSumsTest(
   k: number,
   statistic: (sums: Float64Array) => number,
   options: PermutationOptions = {},
+  tieScale = 0,
 ): PermutationResult {
   const direction = options.direction ?? "two-sided";
-  const resamples = options.resamples ?? 9999;
+  const resamples = resampleCount(options);
   const sampler = new PartitionSampler(values, codes, k);
   const sums = new Float64Array(k);
   groupSums(values, codes, k, sampler.total, sums);
-  const observed = statistic(sums);
+  const observed = checkObserved(statistic(sums));
   const scheme = new GroupScheme(codes);
-  const total = scheme.count(resamples);
-  let count = 0;
-  if (total <= resamples) {
+  if (scheme.count(resamples) <= resamples) {
     return permutationTest(
       scheme,
       () => {
@@ -396,16 +434,46 @@ export function groupSumsTest(
         return statistic(sums);
       },
       options,
+      tieScale,
     );
   }
-  const kept = options.keepNull ? new Float64Array(resamples) : undefined;
   const rng = new Rng(options.seed ?? 1);
+  return monteCarloTest(
+    () => {
+      sampler.sample(rng, sums);
+      return statistic(sums);
+    },
+    observed,
+    direction,
+    options,
+    tieScale,
+  );
+}
+
+/**
+ * The Monte Carlo half of a permutation test, for samplers that draw a random
+ * relabelling and evaluate it in one fused pass: `draw()` is called m = resamples times
+ * and returns the statistic of a fresh uniformly random relabelling; b counts those at
+ * least as extreme as `observed` ({@link atLeastAsExtreme}), and p = (b + 1)/(m + 1)
+ * (Phipson & Smyth 2010) with a Clopper–Pearson (1934) band. Honours keepNull and
+ * onProgress like {@link permutationTest}; `tieScale` as in {@link atLeastAsExtreme}.
+ */
+export function monteCarloTest(
+  draw: () => number,
+  observed: number,
+  direction: Direction,
+  options: PermutationOptions = {},
+  tieScale = 0,
+): PermutationResult {
+  const resamples = resampleCount(options);
+  checkObserved(observed);
+  const kept = options.keepNull ? new Float64Array(resamples) : undefined;
   const onProgress = options.onProgress;
+  let count = 0;
   for (let i = 0; i < resamples; i++) {
-    sampler.sample(rng, sums);
-    const t = statistic(sums);
+    const t = draw();
     if (kept) kept[i] = t;
-    if (atLeastAsExtreme(t, observed, direction)) count++;
+    if (atLeastAsExtreme(t, observed, direction, tieScale)) count++;
     if (onProgress && (i + 1) % PROGRESS_EVERY === 0 && onProgress((i + 1) / resamples) === true) throw new CancelledError();
   }
   return summarize(observed, count, resamples, false, direction, kept);

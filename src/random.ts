@@ -10,6 +10,11 @@ import seedrandom from "seedrandom";
 
 const TWO_POW_32 = 4294967296;
 
+/**
+ * Seeded generator: xoshiro128** (Blackman & Vigna 2018) seeded through seedrandom's
+ * ARC4 (see the file comment), with unbiased bounded integers (Lemire 2019) and the
+ * fused draw loops of the bootstrap.
+ */
 export class Rng {
   private s0: number;
   private s1: number;

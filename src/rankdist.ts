@@ -21,8 +21,25 @@
  * p = P(|S − μ| ≥ |s − μ|) = min(1, 2 · P(S ≤ min(s, max − s))), the same as doubling
  * the smaller one-sided p.
  */
-import type { Direction } from "./permutation";
+import type { Direction, PermutationResult } from "./permutation";
 import { binomial } from "./combinatorics";
+
+/**
+ * The p-values every rank test reports: exact from the counting recursions without
+ * ties (Mann & Whitney 1947; Wilcoxon 1945), by permutation of the mid-ranks otherwise,
+ * and the tie-corrected normal approximation z (no continuity correction).
+ */
+export interface RankTestPValues {
+  /** Exact p from the null distribution when there are no ties; null with ties or beyond the exact work limit. */
+  pExact: number | null;
+  /** Permutation p of the mid-ranks (with the rank statistic as its statistic) whenever pExact is null; else null. */
+  pPermutation: PermutationResult | null;
+  /** Normal approximation p with tie correction, no continuity correction. */
+  pNormal: number;
+  /** (statistic − its null mean) / its null SD. */
+  z: number;
+  direction: Direction;
+}
 
 /** Largest a · t (steps of the recursions) done exactly; beyond, callers fall back to resampling. */
 export const EXACT_WORK_LIMIT = 5e7;
@@ -96,7 +113,7 @@ function symmetricP(s: number, max: number, direction: Direction, direct: (t: nu
   return Math.max(p, Number.MIN_VALUE);
 }
 
-/** True when the exact rank-sum p for this U would take at most EXACT_WORK_LIMIT steps. */
+/** True when the exact rank-sum p for this U would take at most EXACT_WORK_LIMIT steps. Harding (1984). */
 export function rankSumExactFeasible(u: number, n1: number, n2: number, direction: Direction): boolean {
   return Math.min(n1, n2) * (tailPoint(u, n1 * n2, direction) + 1) <= EXACT_WORK_LIMIT;
 }
@@ -110,12 +127,12 @@ export function rankSumExactP(u: number, n1: number, n2: number, direction: Dire
   return symmetricP(u, n1 * n2, direction, (t) => rankSumLowerDirect(n1, n2, t));
 }
 
-/** P(U ≤ t) for the Mann–Whitney U of sizes n1, n2 (no ties). */
+/** P(U ≤ t) for the Mann–Whitney U of sizes n1, n2 (no ties). Mann & Whitney (1947); Harding (1984). */
 export function rankSumCdf(t: number, n1: number, n2: number): number {
   return symmetricCdf(Math.floor(t), n1 * n2, (x) => rankSumLowerDirect(n1, n2, x));
 }
 
-/** True when the exact signed-rank p for this V would take at most EXACT_WORK_LIMIT steps. */
+/** True when the exact signed-rank p for this V would take at most EXACT_WORK_LIMIT steps. Wilcoxon (1945). */
 export function signedRankExactFeasible(v: number, n: number, direction: Direction): boolean {
   return n * (tailPoint(v, (n * (n + 1)) / 2, direction) + 1) <= EXACT_WORK_LIMIT;
 }
@@ -129,7 +146,7 @@ export function signedRankExactP(v: number, n: number, direction: Direction): nu
   return symmetricP(v, (n * (n + 1)) / 2, direction, (t) => signedRankLowerDirect(n, t));
 }
 
-/** P(V ≤ t) for the signed-rank V of n differences (no ties). */
+/** P(V ≤ t) for the signed-rank V of n differences (no ties). Wilcoxon (1945). */
 export function signedRankCdf(t: number, n: number): number {
   return symmetricCdf(Math.floor(t), (n * (n + 1)) / 2, (x) => signedRankLowerDirect(n, x));
 }

@@ -18,6 +18,7 @@
 /**
  * Sorted copy of the values (ascending, native numeric sort); O(n log n). Throws a
  * RangeError on NaN.
+ * (Helper, no statistical method.)
  */
 export function sortedCopy(x: ArrayLike<number>): Float64Array {
   const s = Float64Array.from(x as ArrayLike<number>);
@@ -54,6 +55,7 @@ function upperBound(sorted: Float64Array, v: number): number {
  * Mid-ranks (1-based average ranks for ties) of x, in the input order; O(n log n):
  * one native sort, then two binary searches per observation. A value at sorted
  * positions lo … hi−1 (0-based) gets rank (lo + 1 + hi) / 2. −0 and +0 are equal.
+ * Kendall (1945).
  */
 export function midranks(x: ArrayLike<number>): Float64Array {
   const sorted = sortedCopy(x);
@@ -69,12 +71,13 @@ export function midranks(x: ArrayLike<number>): Float64Array {
 /**
  * Sizes t of the tie groups (runs of equal values) with t ≥ 2, in ascending order of
  * the tied value; O(n log n).
+ * Kruskal & Wallis (1952).
  */
 export function tieGroups(x: ArrayLike<number>): number[] {
   return tieGroupsSorted(sortedCopy(x));
 }
 
-/** As {@link tieGroups}, for values already sorted ascending; O(n). */
+/** As {@link tieGroups}, for values already sorted ascending; O(n). Kruskal & Wallis (1952). */
 export function tieGroupsSorted(sorted: ArrayLike<number>): number[] {
   const out: number[] = [];
   const n = sorted.length;
@@ -88,12 +91,12 @@ export function tieGroupsSorted(sorted: ArrayLike<number>): number[] {
   return out;
 }
 
-/** Σ (t³ − t) over the tie groups of x (0 when there are no ties); O(n log n). */
+/** Σ (t³ − t) over the tie groups of x (0 when there are no ties); O(n log n). Kruskal & Wallis (1952). */
 export function tieSum(x: ArrayLike<number>): number {
   return tieSumSorted(sortedCopy(x));
 }
 
-/** As {@link tieSum}, for values already sorted ascending; O(n), no allocation. */
+/** As {@link tieSum}, for values already sorted ascending; O(n), no allocation. Kruskal & Wallis (1952). */
 export function tieSumSorted(sorted: ArrayLike<number>): number {
   const n = sorted.length;
   let s = 0;
@@ -108,7 +111,7 @@ export function tieSumSorted(sorted: ArrayLike<number>): number {
   return s;
 }
 
-/** True when at least two values of x are equal. */
+/** True when at least two values of x are equal. (Helper, no statistical method.) */
 export function hasTies(x: ArrayLike<number>): boolean {
   const s = sortedCopy(x);
   for (let i = 1; i < s.length; i++) if (s[i] === s[i - 1]) return true;

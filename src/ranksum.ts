@@ -17,11 +17,12 @@
  *  - normal approximation: z = (W − E W)/SD(W), tie-corrected, no continuity correction.
  */
 import { normalPValue } from "./distributions";
+import { canonicalRows } from "./groups";
 import { Direction, PermutationOptions, PermutationResult, groupSumsTest } from "./permutation";
-import { rankSumExactFeasible, rankSumExactP } from "./rankdist";
+import { RankTestPValues, rankSumExactFeasible, rankSumExactP } from "./rankdist";
 import { midranks, sortedCopy, tieSumSorted } from "./ranks";
 
-export interface RankSumResult {
+export interface RankSumResult extends RankTestPValues {
   /** Rank sum of x in the pooled sample (mid-ranks for ties). */
   w: number;
   /** Mann–Whitney U of x: W − n₁(n₁ + 1)/2. */
@@ -30,20 +31,14 @@ export interface RankSumResult {
   n2: number;
   /** True when the pooled sample has tied values. */
   ties: boolean;
-  /** Exact p from the null distribution of W when there are no ties; null with ties or beyond the exact work limit. */
-  pExact: number | null;
-  /** Permutation p of the mid-ranks (with W as its statistic) whenever pExact is null; else null. */
-  pPermutation: PermutationResult | null;
-  /** Normal approximation p with tie correction, no continuity correction. */
-  pNormal: number;
   /** (W − E W) / SD(W). */
   z: number;
-  direction: Direction;
 }
 
 /**
  * Wilcoxon rank-sum / Mann–Whitney test of x against y (see the file comment for the
  * formulas). Throws a RangeError when a sample is empty or all values are equal.
+ * Wilcoxon (1945); Mann & Whitney (1947); Hollander & Wolfe (1973), ch. 4.
  */
 export function rankSumTest(x: ArrayLike<number>, y: ArrayLike<number>, options: PermutationOptions = {}): RankSumResult {
   const direction = options.direction ?? "two-sided";
@@ -73,7 +68,9 @@ export function rankSumTest(x: ArrayLike<number>, y: ArrayLike<number>, options:
   } else {
     const codes = new Int32Array(n);
     codes.fill(1, n1);
-    const r = groupSumsTest(ranks, codes, 2, (sums) => sums[0] - mean, { ...options, direction });
+    // Rows in canonical order, so the Monte Carlo p does not depend on the order of the values.
+    const rows = canonicalRows(ranks, codes);
+    const r = groupSumsTest(rows.values, rows.codes, 2, (sums) => sums[0] - mean, { ...options, direction });
     pPermutation = { ...r, statistic: w, nullDistribution: r.nullDistribution?.map((d) => d + mean) };
   }
   return { w, u, n1, n2, ties, pExact, pPermutation, pNormal, z, direction };

@@ -19,10 +19,10 @@
  */
 import { normalPValue } from "./distributions";
 import { Direction, PermutationOptions, PermutationResult, SignScheme, permutationTest } from "./permutation";
-import { signedRankExactFeasible, signedRankExactP } from "./rankdist";
+import { RankTestPValues, signedRankExactFeasible, signedRankExactP } from "./rankdist";
 import { midranks, sortedCopy, tieSumSorted } from "./ranks";
 
-export interface SignedRankResult {
+export interface SignedRankResult extends RankTestPValues {
   /** Sum of the ranks of |d| over the positive differences. */
   v: number;
   /** Number of nonzero differences (those ranked). */
@@ -31,20 +31,14 @@ export interface SignedRankResult {
   zeros: number;
   /** True when some nonzero |d| are tied. */
   ties: boolean;
-  /** Exact p when there are no ties among |d|; null with ties or beyond the exact work limit. */
-  pExact: number | null;
-  /** Sign-flip permutation p (with V as its statistic) whenever pExact is null; else null. */
-  pPermutation: PermutationResult | null;
-  /** Normal approximation p with tie correction, no continuity correction. */
-  pNormal: number;
   /** (V − E V) / SD(V). */
   z: number;
-  direction: Direction;
 }
 
 /**
  * Wilcoxon signed-rank test of the differences d (see the file comment). Throws a
  * RangeError when every difference is zero.
+ * Wilcoxon (1945); Hollander & Wolfe (1973), ch. 3.
  */
 export function signedRankTest(d: ArrayLike<number>, options: PermutationOptions = {}): SignedRankResult {
   const direction = options.direction ?? "two-sided";
@@ -81,6 +75,8 @@ export function signedRankTest(d: ArrayLike<number>, options: PermutationOptions
     // T = Σ s_i a_i with a_i = sign(d_i)·rank_i equals 2V − n(n+1)/2: centred at 0 under flips.
     const a = new Float64Array(n);
     for (let i = 0; i < n; i++) a[i] = positive[i] ? ranks[i] : -ranks[i];
+    // Canonical order (by signed rank), so the Monte Carlo p does not depend on the order of the pairs.
+    a.sort();
     const scheme = new SignScheme(n);
     const s = scheme.signs;
     const r = permutationTest(

@@ -29,18 +29,12 @@
  * separation) and a permutation p of 1. Fewer than two non-empty groups, or no group
  * with two members, leaves D undefined and raises a RangeError.
  */
-import {
-  CancelledError,
-  GroupScheme,
-  PermutationOptions,
-  PermutationResult,
-  atLeastAsExtreme,
-  permutationTest,
-  summarize,
-} from "./permutation";
+import { GroupScheme, PermutationOptions, PermutationResult, monteCarloTest, permutationTest, resampleCount } from "./permutation";
 import { Rng } from "./random";
 
-/** Precomputed sorted layout for evaluating D under many relabellings. */
+/** Precomputed sorted layout for evaluating D under many relabellings.
+ * See the file comment (Mantel 1967; Anderson 2001).
+ */
 export class DistanceRatio {
   readonly n: number;
   readonly k: number;
@@ -207,6 +201,7 @@ function ratio(between: number, within: number): number {
  * Distance signal-to-noise ratio D of a grouping, with the mean |xᵢ − xⱼ| between groups
  * and within groups (unordered pairs). O(n log n) for the sort, then O(n). D is
  * Infinity when every group is constant but groups differ, 1 when all values are equal.
+ * Mantel (1967); Anderson (2001).
  */
 export function distanceRatio(
   values: ArrayLike<number>,
@@ -233,7 +228,7 @@ export function permutationSNR(
 ): PermutationResult & { d: number } {
   const layout = new DistanceRatio(values, codes, k);
   const sortedLabels = layout.toSorted(codes);
-  const resamples = options.resamples ?? 9999;
+  const resamples = resampleCount(options);
   const scheme = new GroupScheme(sortedLabels);
   // −W is increasing in D and finite, so ties and W = 0 need no special handling.
   const observed = -layout.withinSumSorted(sortedLabels);
@@ -243,21 +238,9 @@ export function permutationSNR(
   } else {
     // Monte Carlo: shuffle and pass fused in one loop (same law as GroupScheme.random).
     const rng = new Rng(options.seed ?? 1);
-    const kept = options.keepNull ? new Float64Array(resamples) : undefined;
-    const onProgress = options.onProgress;
-    let count = 0;
-    for (let i = 0; i < resamples; i++) {
-      const t = -layout.sampleWithinSum(rng, sortedLabels);
-      if (kept) kept[i] = t;
-      if (atLeastAsExtreme(t, observed, "greater")) count++;
-      if (onProgress && (i + 1) % PROGRESS_EVERY === 0 && onProgress((i + 1) / resamples) === true) throw new CancelledError();
-    }
-    result = summarize(observed, count, resamples, false, "greater", kept);
+    result = monteCarloTest(() => -layout.sampleWithinSum(rng, sortedLabels), observed, "greater", options);
   }
   const d = layout.dFromWithinSum(-observed);
   const nullDistribution = result.nullDistribution?.map((t) => layout.dFromWithinSum(-t));
   return { ...result, statistic: d, d, nullDistribution };
 }
-
-/** Relabellings between progress reports (as in the engine's loops). */
-const PROGRESS_EVERY = 16384;

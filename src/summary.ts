@@ -34,7 +34,9 @@ function requireValues(n: number): void {
   if (n < 1) throw new RangeError("there are no values to summarize");
 }
 
-/** Arithmetic mean Σx/n, with one refinement pass (mean + Σ(x − mean)/n). */
+/** Arithmetic mean Σx/n, with one refinement pass (mean + Σ(x − mean)/n).
+ * The correction pass is the mean analogue of Chan, Golub & LeVeque (1983).
+ */
 export function mean(x: ArrayLike<number>): number {
   const n = x.length;
   requireValues(n);
@@ -63,7 +65,7 @@ export function variance(x: ArrayLike<number>, m: number = mean(x)): number {
   return Math.max(0, (ss - (s * s) / n) / (n - 1));
 }
 
-/** Sample standard deviation √variance (divisor n − 1); NaN when n < 2. */
+/** Sample standard deviation √variance (divisor n − 1); NaN when n < 2. Chan, Golub & LeVeque (1983). */
 export function sd(x: ArrayLike<number>, m: number = mean(x)): number {
   return Math.sqrt(variance(x, m));
 }
@@ -124,6 +126,7 @@ function copyInto(x: ArrayLike<number>, scratch?: Float64Array): Float64Array {
 /**
  * Median by selection in O(n) expected time; pass a `scratch` array of length ≥ n to
  * avoid allocating (x itself is not changed).
+ * Hoare (1961) selection.
  */
 export function median(x: ArrayLike<number>, scratch?: Float64Array): number {
   const n = x.length;
@@ -132,7 +135,7 @@ export function median(x: ArrayLike<number>, scratch?: Float64Array): number {
   return medianInPlace(a);
 }
 
-/** Median of a, reordering a in place (O(n) expected). */
+/** Median of a, reordering a in place (O(n) expected). Hoare (1961) selection. */
 export function medianInPlace(a: Float64Array): number {
   const n = a.length;
   requireValues(n);
@@ -156,7 +159,7 @@ export function quantileSorted(sorted: ArrayLike<number>, p: number): number {
   return sorted[lo] + (h - lo) * (sorted[lo + 1] - sorted[lo]);
 }
 
-/** Type-7 quantile of unsorted values (sorts a copy). */
+/** Type-7 quantile of unsorted values (sorts a copy). Hyndman & Fan (1996). */
 export function quantile(x: ArrayLike<number>, p: number): number {
   return quantileSorted(Float64Array.from(x as ArrayLike<number>).sort(), p);
 }
@@ -183,6 +186,7 @@ export function trimmedMean(x: ArrayLike<number>, proportion = 0.1, scratch?: Fl
 /**
  * Summary of one sample: n, mean, median, SD (n − 1), CV %, min, max and type-7
  * quartiles (see the file comment). One sorted copy; O(n log n).
+ * Hyndman & Fan (1996); Chan, Golub & LeVeque (1983).
  */
 export function describe(values: ArrayLike<number>): Description {
   const n = values.length;
@@ -209,6 +213,7 @@ export function describe(values: ArrayLike<number>): Description {
 /**
  * {@link describe} for each group: codes 0..names.length − 1 index `names`; one row per
  * name, in the order of `names`. A name without values throws a RangeError.
+ * Hyndman & Fan (1996); Chan, Golub & LeVeque (1983).
  */
 export function describeGroups(values: ArrayLike<number>, codes: ArrayLike<number>, names: readonly string[]): Array<{ group: string } & Description> {
   if (values.length !== codes.length) throw new RangeError("values and group codes differ in length");

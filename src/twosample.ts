@@ -25,6 +25,7 @@ export type TwoSampleStatistic = "mean" | "median" | "t";
  * mean(x) − mean(y), median(x) − median(y), or Welch t. Welch t is ±Infinity when both
  * samples are constant and their means differ, 0 when all values are equal; it needs
  * at least two values in each sample. `nullDistribution` (when kept) is on the same scale.
+ * Fisher (1935); Pitman (1937); Janssen (1997) for Welch t.
  */
 export function twoSampleTest(
   x: ArrayLike<number>,
@@ -68,7 +69,11 @@ function meanTest(
   // the difference; the sum over all values is then a small number too.
   const shift = minimum(pooled);
   const shifted = pooled.map((v) => v - shift);
-  const r = groupSumsTest(shifted, codes, 2, (s) => n2 * s[0] - n1 * s[1], options);
+  // The terms n₂S₁ and n₁S₂ are at most max(n₁, n₂)·ΣShifted: the scale of the rounding
+  // noise, so a zero difference ties with zero.
+  let total = 0;
+  for (let i = 0; i < shifted.length; i++) total += shifted[i];
+  const r = groupSumsTest(shifted, codes, 2, (s) => n2 * s[0] - n1 * s[1], options, Math.max(n1, n2) * total);
   const scale = 1 / (n1 * n2);
   let sx = 0, sy = 0;
   for (let i = 0; i < n1; i++) sx += pooled[i];
@@ -89,7 +94,10 @@ function medianTest(
   const n = n1 + n2;
   const order = Int32Array.from({ length: n }, (_, i) => i);
   order.sort((a, b) => pooled[a] - pooled[b] || codes[a] - codes[b]);
-  const v = Float64Array.from(order, (i) => pooled[i]);
+  // Shifted by the minimum, as for the mean: the midpoints keep the digits that separate
+  // splits, and the range is the scale of their rounding noise.
+  const shift = minimum(pooled);
+  const v = Float64Array.from(order, (i) => pooled[i] - shift);
   const scheme = new GroupScheme(Int32Array.from(order, (i) => codes[i]));
   const lo1 = (n1 - 1) >> 1, hi1 = n1 >> 1;
   const lo2 = (n2 - 1) >> 1, hi2 = n2 >> 1;
@@ -118,7 +126,7 @@ function medianTest(
     }
     return (a1 + b1) / 2 - (a2 + b2) / 2;
   };
-  const r = permutationTest(scheme, stat, options);
+  const r = permutationTest(scheme, stat, options, v[n - 1]);
   return { ...r, estimate: r.statistic };
 }
 

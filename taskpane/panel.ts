@@ -7,7 +7,7 @@
  * data" find free space themselves; a chosen cell whose area is not empty makes the
  * panel ask what to do, writing nothing until the user answers.
  */
-import { parseAddress } from "../functions/address";
+import { cellName, parseAddress } from "../functions/address";
 import { CancelledError } from "../src/permutation";
 import type { AnalysisOptions, AnalysisResult, GroupStatisticWord, Question } from "../src/analysis/types";
 import { DEFAULT_OPTIONS } from "../src/analysis/types";
@@ -20,7 +20,7 @@ import { Area, CellsNotEmptyError, DataSource, RegionRead, WorkbookHost } from "
 import { countText } from "./number-format";
 import { PANEL_CSS, injectStyle } from "./panel-style";
 import { Choices, DataProblem, Prepared, prepare } from "./prepare";
-import { Names, reading } from "./reading";
+import { Names, caution, reading } from "./reading";
 import { buildResultsBlock } from "./results-block";
 import type { AnalysisRunner } from "./runner";
 
@@ -50,7 +50,7 @@ const QUESTIONS: { id: Question; title: string; eg: string }[] = [
   { id: "groups", title: "Do groups differ?", eg: "e.g. yields of several lines or treatments; farms or fields can be blocks" },
   { id: "paired", title: "Do two paired measurements differ?", eg: "e.g. the same samples before and after a treatment" },
   { id: "association", title: "Are two columns associated?", eg: "e.g. does yield rise with rainfall or nitrogen?" },
-  { id: "precision", title: "How precise is a summary?", eg: "an interval for a mean, median, spread or CV %" },
+  { id: "precision", title: "How precise is a summary?", eg: "e.g. a range of likely values for the mean yield, the median or the spread (CV %: spread as % of the mean)" },
   { id: "traits", title: "Do groups differ on several traits at once?", eg: "e.g. yield, protein and plant height together" },
 ];
 
@@ -60,6 +60,11 @@ export interface PanelDeps {
   /** Writes the demo data (new sheets) and selects it. */
   loadDemo?: () => Promise<void>;
   now?: () => Date;
+}
+
+/** The top-left cell of an area as the user types it: `I1`. */
+function cellText(a: Area): string {
+  return cellName(a.top, a.left);
 }
 
 function esc(s: string): string {
@@ -83,7 +88,8 @@ export class Panel {
   written: Area | null = null;
   private progress = 0;
   private started = 0;
-  private pendingBlock: { block: Block; names: Names; area: Area } | null = null;
+  /** A block waiting for the user's answer; `beside` is the free space it would take beside the data. */
+  private pendingBlock: { block: Block; names: Names; area: Area; beside: Area | null } | null = null;
   /** Seconds the last analysis took (shown, and read by the browser tests). */
   lastSeconds = NaN;
 
@@ -311,13 +317,13 @@ export class Panel {
     const big = (this.prepared?.work ?? 0) > LIVE_WORK_LIMIT;
     return `<h2>Options</h2><p class="help">The defaults suit most trials. Each option is explained below it.</p>
       <div class="rs-row">${sel("rs-resamples", "Shuffles (resamples)", resampleItems, String(o.resamples), "more shuffles give a more precise p, and take longer")}
-      <div class="rs-field"><label class="t" for="rs-seed">Seed</label><input type="number" id="rs-seed" value="${o.seed}" min="1" step="1"><span class="hint">same seed, same answer</span></div></div>
-      <div class="rs-row">${sel("rs-level", "Interval level", [["0.9", "90 %"], ["0.95", "95 %"], ["0.99", "99 %"]], String(o.level))}
-      ${sel("rs-alpha", "Call a difference clear below p =", [["0.1", "0.10"], ["0.05", "0.05"], ["0.01", "0.01"]], String(o.alpha))}</div>
+      <div class="rs-field"><label class="t" for="rs-seed">Seed</label><input type="number" id="rs-seed" value="${o.seed}" min="1" step="1"><span class="hint">the starting point of the random shuffles: same seed, same answer</span></div></div>
+      <div class="rs-row">${sel("rs-level", "Interval level", [["0.9", "90 %"], ["0.95", "95 %"], ["0.99", "99 %"]], String(o.level), "how sure each range of likely values should be")}
+      ${sel("rs-alpha", "Call a difference clear below p =", [["0.1", "0.10"], ["0.05", "0.05"], ["0.01", "0.01"]], String(o.alpha), "p is how often chance alone gives a result this large")}</div>
       ${groupsOnly ? sel("rs-adjust", "Allow for many comparisons", [["holm", "Holm (safe, recommended)"], ["maxt", "max-T from the same shuffles (less strict)"], ["bh", "Benjamini–Hochberg (false discovery rate)"], ["none", "no allowance"]], o.adjust, "comparing many pairs raises the chance of a false alarm; this corrects for it") : ""}
-      ${groupsOnly ? sel("rs-primary", "Test the reading leads with", [["F", "permutation F (differences in means)"], ["SNR", "distance ratio (robust to outliers)"], ["RANK", "rank test (ignores the size of outliers)"]], this.choices.primary ?? "F") : ""}
+      ${groupsOnly ? sel("rs-primary", "Test the reading leads with", [["F", "permutation F (differences in means)"], ["SNR", "distance ratio (robust to outliers)"], ["RANK", "rank test (ignores the size of outliers)"]], this.choices.primary ?? "F", "the other tests are shown beside it in the results") : ""}
       ${directional ? sel("rs-direction", "Direction", [["two-sided", "either way"], ["greater", "second is higher"], ["less", "second is lower"]], o.direction, "choose one side only if you decided it before seeing the data") : ""}
-      ${sel("rs-method", "Interval method", [["bca", "BCa bootstrap (recommended)"], ["percentile", "percentile bootstrap"], ["basic", "basic bootstrap"]], o.method)}
+      ${sel("rs-method", "Interval method", [["bca", "BCa bootstrap (recommended)"], ["percentile", "percentile bootstrap"], ["basic", "basic bootstrap"]], o.method, "ranges of likely values come from resampling the data (the bootstrap); BCa also corrects for skewed data")}
       ${sel("rs-where", "Where to write the results", [["new", "on a new sheet"], ["beside", "beside the data (first empty columns to the right)"], ["cell", "starting at a cell I choose"]], o.where, "existing cells are never overwritten")}
       <div class="rs-field" id="rs-cell-field"${o.where === "cell" ? "" : ' style="display:none"'}><label class="t" for="rs-cell">Top-left cell</label><input type="text" id="rs-cell" value="${esc(o.cell)}" placeholder="e.g. H2 or Results!A1"></div>
       <label class="rs-checks"><input type="checkbox" id="rs-live"${live ? " checked" : ""}> Keep results live: cells hold =RS.… formulas that update with the data</label>
@@ -360,7 +366,13 @@ export class Panel {
       <div id="rs-progress-text">${busy ? `${pct} % done` : ""}</div>
       ${this.box()}
       <div class="rs-btns" id="rs-run-btns">${busy ? `<button class="rs-btn danger" id="rs-cancel">Cancel</button>` : `<button class="rs-btn" id="rs-back-options">Back to options</button>`}</div>
-      ${this.pendingBlock ? `<div class="rs-btns" id="rs-ask"><button class="rs-btn primary" id="rs-ask-beside">Write beside the data instead</button><button class="rs-btn" id="rs-ask-new">Write on a new sheet</button><button class="rs-btn" id="rs-ask-cancel">Do not write</button></div>` : ""}`;
+      ${this.pendingBlock ? this.askHtml(this.pendingBlock.beside) : ""}`;
+  }
+
+  /** The three answers when the chosen place is not free; the first names the cell it would use. */
+  private askHtml(beside: Area | null): string {
+    const at = beside ? `<button class="rs-btn primary" id="rs-ask-beside">Write at ${esc(cellText(beside))} (first free space to the right of the data)</button>` : "";
+    return `<div class="rs-btns" id="rs-ask">${at}<button class="rs-btn${beside ? "" : " primary"}" id="rs-ask-new">Write on a new sheet</button><button class="rs-btn" id="rs-ask-cancel">Do not write</button></div>`;
   }
 
   /** What the run does, in one sentence. */
@@ -429,13 +441,26 @@ export class Panel {
     return { value: name(c.values), group: name(c.groups), block: name(c.blocks), traits: (c.traits ?? []).map((i) => this.columns[i]?.name ?? "") };
   }
 
+  /** The free space beside the data the block would take, or null when there is none. */
+  private async besideArea(block: Block): Promise<Area | null> {
+    const r = this.region;
+    if (!r) return null;
+    try {
+      return await this.deps.host.findFreeSpace(r.sheet, block.rows, block.cols, r.top);
+    } catch {
+      return null;
+    }
+  }
+
   /** Finds where the block goes (asking when the chosen cell is not free) and writes it. */
-  private async write(block: Block, names: Names, override?: Where): Promise<void> {
+  private async write(block: Block, names: Names, override?: Where | Area): Promise<void> {
     const host = this.deps.host;
     const where = override ?? this.options.where;
     try {
       let area: Area;
-      if (where === "new") {
+      if (typeof where === "object") {
+        area = where;
+      } else if (where === "new") {
         const sheet = await host.addSheet("Results");
         area = { sheet, top: 0, left: 0, rows: block.rows, cols: block.cols };
       } else if (where === "beside") {
@@ -446,7 +471,7 @@ export class Panel {
         if (!p) throw new DataProblem(`“${this.options.cell}” is not a cell address; write it like H2 or Results!A1.`);
         area = { sheet: p.sheet || this.region!.sheet, top: p.top, left: p.left, rows: block.rows, cols: block.cols };
         if (!(await host.isEmpty(area))) {
-          this.pendingBlock = { block, names, area };
+          this.pendingBlock = { block, names, area, beside: await this.besideArea(block) };
           this.message = {
             kind: "warn",
             html: `The results need ${block.rows} rows × ${block.cols} columns from ${esc(areaText({ ...area, rows: 1, cols: 1 }))}, and some of those cells are not empty. Nothing has been written. Where should the results go?`,
@@ -464,7 +489,7 @@ export class Panel {
       this.render();
     } catch (e) {
       if (e instanceof CellsNotEmptyError) {
-        this.pendingBlock = { block, names, area: e.area };
+        this.pendingBlock = { block, names, area: e.area, beside: await this.besideArea(block) };
         this.message = { kind: "warn", html: `Cell ${esc(e.firstFilled)} is in the way, so nothing was written. Where should the results go?` };
       } else this.message = { kind: "bad", html: esc(e instanceof Error ? e.message : String(e)) };
       this.render();
@@ -478,11 +503,14 @@ export class Panel {
     if (!r || !this.written) return `<h2>Results</h2><p class="help">Run an analysis first.</p>`;
     const lines = reading(r, this.names());
     const secs = Number.isFinite(this.lastSeconds) ? this.lastSeconds : 0;
+    const w = this.written;
+    const took = secs < 1 ? "under a second" : `${secs < 10 ? secs.toFixed(1) : Math.round(secs)} s`;
     return `<h2>Results</h2>
-      <div class="rs-box ok" id="rs-written">Written to <b>${esc(areaText(this.written))}</b> in ${secs < 10 ? secs.toFixed(1) : Math.round(secs)} s.</div>
+      <div class="rs-box ok" id="rs-written">Written to <b>${esc(areaText(w))}</b> in ${took}: the results block starts at cell <b>${esc(cellText(w))}</b> on the sheet “${esc(w.sheet)}” and fills ${w.rows} rows × ${w.cols} columns, with the tables, charts, method and caution.</div>
       <div class="rs-reading" id="rs-reading">${lines.map((l) => `<p>${esc(l)}</p>`).join("")}</div>
+      <div class="rs-box warn" id="rs-caution">${esc(caution(r))}</div>
       ${this.box()}
-      <div class="rs-btns"><button class="rs-btn primary" id="rs-show">Show the results</button><button class="rs-btn" id="rs-again">Ask another question</button><button class="rs-btn" id="rs-change">Change options and run again</button></div>`;
+      <div class="rs-btns"><button class="rs-btn primary" id="rs-show">Show the results block (${esc(w.sheet)}, ${esc(cellText(w))})</button><button class="rs-btn" id="rs-again">Ask another question</button><button class="rs-btn" id="rs-change">Change options and run again</button></div>`;
   }
 
   // ---- events --------------------------------------------------------------------------
@@ -561,7 +589,7 @@ export class Panel {
         on("rs-ask-beside", "click", () => {
           const p = this.pendingBlock!;
           this.pendingBlock = null;
-          void this.write(p.block, p.names, "beside");
+          void this.write(p.block, p.names, p.beside ?? "beside");
         });
         on("rs-ask-new", "click", () => {
           const p = this.pendingBlock!;
@@ -575,7 +603,7 @@ export class Panel {
         });
         break;
       case "results":
-        on("rs-show", "click", () => void this.deps.host.select({ ...this.written!, rows: 1, cols: 1 }));
+        on("rs-show", "click", () => void this.deps.host.select(this.written!));
         on("rs-again", "click", () => this.go("question"));
         on("rs-change", "click", () => this.go("options"));
         break;

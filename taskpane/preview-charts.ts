@@ -126,14 +126,20 @@ function histogram(ch: PlacedChart, s: PreviewSheet): string {
   return shell(ch, f, body);
 }
 
-function dots(ch: PlacedChart, s: PreviewSheet): string {
-  const f = frame(ch);
+/** The (x, y) pairs of the chart's two source columns; rows with a blank or text are left out. */
+function pointsOf(ch: PlacedChart, s: PreviewSheet): { x: number; y: number }[] {
   const pts: { x: number; y: number }[] = [];
   for (let i = 0; i < ch.source.rows; i++) {
     const a = num(s, ch.source.row + i, ch.source.col);
     const b = num(s, ch.source.row + i, ch.source.col + 1);
     if (a !== null && b !== null) pts.push({ x: a, y: b });
   }
+  return pts;
+}
+
+function dots(ch: PlacedChart, s: PreviewSheet): string {
+  const f = frame(ch);
+  const pts = pointsOf(ch, s);
   const cats = ch.categories ?? [];
   const k = Math.max(cats.length, 1);
   const ys = pts.map((p) => p.y);
@@ -196,12 +202,7 @@ function range(ch: PlacedChart, s: PreviewSheet): string {
 
 function scatter(ch: PlacedChart, s: PreviewSheet): string {
   const f = frame(ch);
-  const pts: { x: number; y: number }[] = [];
-  for (let i = 0; i < ch.source.rows; i++) {
-    const a = num(s, ch.source.row + i, ch.source.col);
-    const b = num(s, ch.source.row + i, ch.source.col + 1);
-    if (a !== null && b !== null) pts.push({ x: a, y: b });
-  }
+  const pts = pointsOf(ch, s);
   const xs = pts.map((p) => p.x), ys = pts.map((p) => p.y);
   const xl = Math.min(...xs), xh = Math.max(...xs), yl = Math.min(...ys), yh = Math.max(...ys);
   const px = (xh - xl) * 0.06 || 1, py = (yh - yl) * 0.08 || 1;

@@ -120,6 +120,46 @@ class Writer {
     const skipped = c.rowsSkipped > 0 ? `, ${countText(c.rowsSkipped)} skipped (blank cells)` : "";
     this.b.add([text(`Data: ${areaText(c.data)} · ${countText(c.rowsUsed)} rows used${skipped} · run on ${when}`, SUBTITLE, cols, "subtitle")]);
   }
+  /** The opening of every block: the title, then the plain-language reading. */
+  opening(question: string, readingLines: string[], detail = ""): void {
+    this.title(question, detail);
+    this.section("What the data say");
+    this.lines(readingLines, READING, "reading", READING_LEAD);
+  }
+  /** A numbered section with the summary header (n, mean, median, SD, …). */
+  glance(title: string): void {
+    this.section(title);
+    this.header(["", ...SUMMARY_HEADER.slice(1).map(String)]);
+  }
+  /** The close of every block: how it was worked out, then the caution. */
+  closing(method: string[], r: AnalysisResult): void {
+    this.section("How this was worked out");
+    this.lines(method, NOTE, "method");
+    this.b.blank();
+    this.lines([caution(r)], CAUTION, "caution");
+  }
+  /**
+   * The histogram of the shuffled statistic, drawn from its chart-data rows (lower, upper,
+   * count, observed at column 0), from `at` to the block's right edge, bars as extreme as
+   * the data highlighted.
+   */
+  histogram(h: { title: string; at: { row: number; col: number }; source: { row: number; rows: number }; observed: number; tail: "upper" | "both" | "lower"; table: (number | string)[][]; xTitle: string; yTitle: string }): void {
+    const cols = this.tableCols;
+    this.b.charts.push({
+      kind: "histogram",
+      title: h.title,
+      at: h.at,
+      width: this.slot(h.at.col, cols),
+      height: CHART_H,
+      source: { row: h.source.row, col: 0, rows: h.source.rows, cols: 4 },
+      observed: h.observed,
+      tail: h.tail,
+      highlight: extremeBins(h.table, h.observed, h.tail),
+      cells: { rows: CHART_ROWS - 1, cols: cols - h.at.col },
+      xTitle: h.xTitle,
+      yTitle: h.yTitle,
+    });
+  }
   section(s: string): number {
     this.b.blank();
     return this.b.add([text(s, SECTION, this.tableCols)]);
@@ -200,7 +240,12 @@ function tailOf(direction: string): "upper" | "both" | "lower" {
 }
 
 function how(t: TestOutcome, unit: string): string {
-  return t.exact ? `exact: all ${countText(t.resamples)} ${unit}` : `Monte Carlo: ${countText(t.resamples)} random ${unit}`;
+  return t.exact ? `exact: all ${countText(t.resamples)} ${unit}` : `${countText(t.resamples)} random ${unit} (Monte Carlo)`;
+}
+
+/** The interval method in plain words for the method notes. */
+function intervalWords(method: string): string {
+  return method === "bca" ? "BCa: corrected for bias and skew" : method === "percentile" ? "percentile: the middle of the resampled values" : "basic: the resampled values reflected about the estimate";
 }
 
 function levelText(level: number): string {
@@ -306,9 +351,7 @@ function groupsBlock(r: GroupsResult, ctx: BlockContext): Block {
   const fmt = dataFormat(scale);
   const unit = unitOf(vName);
 
-  w.title(`Do ${groupsPhrase(gName)} differ in ${plainName(vName)}?`, r.blocks ? `(${plainName(blockName)}s as blocks)` : "");
-  w.section("What the data say");
-  w.lines(reading(r, names), READING, "reading", READING_LEAD);
+  w.opening(`Do ${groupsPhrase(gName)} differ in ${plainName(vName)}?`, reading(r, names), r.blocks ? `(${plainName(blockName)}s as blocks)` : "");
 
   // 1. summary
   w.section(`1. ${capital(groupsPhrase(gName))} at a glance${unit ? ` (${plainName(vName)} in ${unit})` : ""}`);
@@ -349,8 +392,8 @@ function groupsBlock(r: GroupsResult, ctx: BlockContext): Block {
         classicalHow(r.welch, "F", "assumes normal data"), "test.welch");
   }
   if (r.rankClassical && r.rank)
-    w.note(`Rank statistic from its χ² approximation: ${pEquals(r.rankClassical.p)} (${formatDf(r.rankClassical.df1)} df).`);
-  w.note("“p from … to” is the 95 % Monte Carlo range of a p found from random shuffles; more shuffles narrow it.");
+    w.note(`Rank test by the classical formula instead of shuffles (χ² approximation): ${pEquals(r.rankClassical.p)} (${formatDf(r.rankClassical.df1)} df).`);
+  w.note("A p found from random shuffles (Monte Carlo) is itself a little uncertain: “p from … to” is its 95 % range; more shuffles narrow it.");
   const picRow = w.pictures("The picture: every plot, and what chance alone would give");
 
   // 3. which groups differ
@@ -389,17 +432,14 @@ function groupsBlock(r: GroupsResult, ctx: BlockContext): Block {
   w.note(`Shift = Hodges–Lehmann median of all head-to-head differences (one row of each group), with its ${pct} % interval; Cliff's delta runs from −1 to 1 (0 = neither tends to be higher).`);
 
   // method and caution
-  w.section("How this was worked out");
   const shuffled = r.blocks ? `The ${plainName(gName)} labels were shuffled within each ${plainName(blockName)}` : `The ${plainName(gName)} labels were shuffled among the rows`;
   const m = methodLines(r, { ...ctx, live }, shuffled, leadTest(r).t);
   if (r.shared) {
-    m.splice(1, 0, `For these large data every test and every pair comes from the same ${countText(o.resamples)} shuffles, drawn value by value (rows with equal values are interchangeable), in two parts with seeds ${o.seed}/0/2 and ${o.seed}/1/2. Pairwise p compare each pair within those shuffles of all groups; intervals are bootstrap (${o.method === "bca" ? "BCa" : o.method}) with ${countText(o.resamples)} resamples within each group.`);
+    m.splice(1, 0, `For these large data every test and every pair comes from the same ${countText(o.resamples)} shuffles, drawn value by value (rows with equal values are interchangeable), in two parts with seeds ${o.seed}/0/2 and ${o.seed}/1/2. Pairwise p compare each pair within those shuffles of all groups; intervals are bootstrap (${intervalWords(o.method)}) with ${countText(o.resamples)} resamples within each group.`);
   } else {
-    m.splice(1, 0, `Pairwise comparisons shuffle the two groups' rows only; intervals are bootstrap (${o.method === "bca" ? "BCa" : o.method}) with ${countText(o.resamples)} resamples.${r.blocks ? ` They do not use the ${plainName(blockName)}s as blocks.` : ""}`);
+    m.splice(1, 0, `Pairwise comparisons shuffle the two groups' rows only; intervals are bootstrap (${intervalWords(o.method)}) with ${countText(o.resamples)} resamples.${r.blocks ? ` They do not use the ${plainName(blockName)}s as blocks.` : ""}`);
   }
-  w.lines(m, NOTE, "method");
-  b.blank();
-  w.lines([caution(r)], CAUTION, "caution");
+  w.closing(m, r);
 
   // chart data
   const lead = leadTest(r);
@@ -465,17 +505,13 @@ function groupsBlock(r: GroupsResult, ctx: BlockContext): Block {
     };
   }
   if (histSource) {
-    b.charts.push({
-      kind: "histogram",
+    w.histogram({
       title: `If ${groupsPhrase(gName)} were alike: ${lead.name} in ${countText(r.nullDistribution.length)} shuffles`,
       at: { row: picRow, col: 3 },
-      width: w.slot(3, TABLE_COLS),
-      height: CHART_H,
-      source: { row: histSource.row, col: 0, rows: histSource.rows, cols: 4 },
+      source: { row: histSource.row, rows: histSource.rows },
       observed: lead.t.statistic,
       tail: "upper",
-      highlight: extremeBins(hist!, lead.t.statistic, "upper"),
-      cells: { rows: CHART_ROWS - 1, cols: TABLE_COLS - 3 },
+      table: hist!,
       xTitle: `${lead.name} (if the groups were alike)`,
       yTitle: "number of shuffles",
     });
@@ -496,12 +532,9 @@ function pairedBlock(r: PairedResult, ctx: BlockContext): Block {
   const scale = Math.max(Math.abs(r.x.mean), Math.abs(r.y.mean));
   const fmt = dataFormat(scale);
   const live = ctx.live && !!ctx.first && !!ctx.second;
-  w.title(`Do the two measurements differ? ${unitless(second)} compared with ${unitless(first)}`, "");
-  w.section("What the data say");
-  w.lines(reading(r, names), READING, "reading", READING_LEAD);
+  w.opening(`Do the two measurements differ? ${unitless(second)} compared with ${unitless(first)}`, reading(r, names));
 
-  w.section("1. The two measurements at a glance");
-  w.header(["", ...SUMMARY_HEADER.slice(1).map(String)]);
+  w.glance("1. The two measurements at a glance");
   b.add(describeRow(first, r.y, fmt, "sum.first"));
   b.add(describeRow(second, r.x, fmt, "sum.second"));
   b.add(describeRow(`Change (${unitless(second)} − ${unitless(first)})`, { ...r.d, cv: null }, fmt, "sum.change"));
@@ -530,27 +563,22 @@ function pairedBlock(r: PairedResult, ctx: BlockContext): Block {
   b.add([text("Median change"), v(r.medianInterval.estimate, fmt), v(r.medianInterval.lower, fmt), v(r.medianInterval.upper, fmt), text(`${r.medianInterval.method} bootstrap`, { color: "#4A5A60" }, 4)]);
   if (Number.isFinite(r.percentChange)) b.add([text(`Mean change as % of ${first}`), v(r.percentChange / 100, "0.0%", undefined, "pct")]);
 
-  w.section("How this was worked out");
-  w.lines(methodLines(r, ctx, "The sign of each pair's change was flipped", r.signFlip), NOTE, "method");
-  b.blank();
-  w.lines([caution(r)], CAUTION, "caution");
+  const pm = methodLines(r, ctx, "The sign of each pair's change was flipped", r.signFlip);
+  pm.splice(1, 0, `Intervals are bootstrap (${intervalWords(o.method)}), from ${countText(r.interval.resamples)} resamples of the pairs.`);
+  w.closing(pm, r);
 
   const hist = histogramRows(r.nullDistribution, r.signFlip.statistic);
   if (hist) {
     w.section("Chart data (the chart above is drawn from these cells)");
     const hf = fmt;
     const res = w.spill(null, hist, [hf, hf, INT_FORMAT, hf], "hist");
-    b.charts.push({
-      kind: "histogram",
+    w.histogram({
       title: `If there were no change: mean change in ${countText(r.nullDistribution.length)} sign patterns`,
       at: { row: picRow, col: 0 },
-      width: w.slot(0, TABLE_COLS),
-      height: CHART_H,
-      source: { row: res.top + 1, col: 0, rows: res.rows - 1, cols: 4 },
+      source: { row: res.top + 1, rows: res.rows - 1 },
       observed: r.signFlip.statistic,
       tail: tailOf(o.direction),
-      highlight: extremeBins(hist, r.signFlip.statistic, tailOf(o.direction)),
-      cells: { rows: CHART_ROWS - 1, cols: TABLE_COLS },
+      table: hist,
       xTitle: "mean change (if there were no effect)",
       yTitle: "number of sign patterns",
     });
@@ -567,12 +595,9 @@ function associationBlock(r: AssociationResult, ctx: BlockContext): Block {
   const yName = ctx.second?.name ?? "y";
   const o = r.options;
   const live = ctx.live && !!ctx.first && !!ctx.second;
-  w.title(`Are ${unitless(xName)} and ${unitless(yName)} associated?`, "");
-  w.section("What the data say");
-  w.lines(reading(r, { x: xName, y: yName }), READING, "reading", READING_LEAD);
+  w.opening(`Are ${unitless(xName)} and ${unitless(yName)} associated?`, reading(r, { x: xName, y: yName }));
 
-  w.section("1. The two columns at a glance");
-  w.header(["", ...SUMMARY_HEADER.slice(1).map(String)]);
+  w.glance("1. The two columns at a glance");
   b.add(describeRow(xName, r.x, dataFormat(Math.abs(r.x.mean)), "sum.x"));
   b.add(describeRow(yName, r.y, dataFormat(Math.abs(r.y.mean)), "sum.y"));
 
@@ -593,27 +618,20 @@ function associationBlock(r: AssociationResult, ctx: BlockContext): Block {
   b.add([text("Intercept"), v(r.intercept, dataFormat(Math.abs(r.y.mean)), undefined, "intercept")]);
   b.add([text("Variation explained by the line (r²)"), v(r.pearson.statistic * r.pearson.statistic, "0.0%")]);
 
-  w.section("How this was worked out");
-  w.lines(methodLines(r, ctx, `The ${unitless(yName)} values were rearranged against ${unitless(xName)}`, r.pearson), NOTE, "method");
-  b.blank();
-  w.lines([caution(r)], CAUTION, "caution");
+  w.closing(methodLines(r, ctx, `The ${unitless(yName)} values were rearranged against ${unitless(xName)}`, r.pearson), r);
 
   w.section("Chart data (the charts above are drawn from these cells)");
   const dataTop = b.row;
   const hist = histogramRows(r.nullDistribution, r.pearson.statistic);
   if (hist) {
     const res = w.spill(null, hist, ["0.000", "0.000", INT_FORMAT, "0.000"], "hist");
-    b.charts.push({
-      kind: "histogram",
+    w.histogram({
       title: `If unrelated: r in ${countText(r.nullDistribution.length)} rearrangements`,
       at: { row: picRow, col: 3 },
-      width: w.slot(3, TABLE_COLS),
-      height: CHART_H,
-      source: { row: res.top + 1, col: 0, rows: res.rows - 1, cols: 4 },
+      source: { row: res.top + 1, rows: res.rows - 1 },
       observed: r.pearson.statistic,
       tail: tailOf(o.direction),
-      highlight: extremeBins(hist, r.pearson.statistic, tailOf(o.direction)),
-      cells: { rows: CHART_ROWS - 1, cols: TABLE_COLS - 3 },
+      table: hist,
       xTitle: "r (if the columns were unrelated)",
       yTitle: "number of rearrangements",
     });
@@ -652,12 +670,9 @@ function precisionBlock(r: PrecisionResult, ctx: BlockContext): Block {
   const o = r.options;
   const fmt = dataFormat(Math.abs(r.description.mean));
   const live = ctx.live && !!ctx.values;
-  w.title(`How precise are the summaries of ${plainName(name)}?`, "");
-  w.section("What the data say");
-  w.lines(reading(r, { value: name }), READING, "reading", READING_LEAD);
+  w.opening(`How precise are the summaries of ${plainName(name)}?`, reading(r, { value: name }));
 
-  w.section("1. The data at a glance");
-  w.header(["", ...SUMMARY_HEADER.slice(1).map(String)]);
+  w.glance("1. The data at a glance");
   b.add(describeRow(name, r.description, fmt, "sum"));
 
   const pct = levelText(o.level);
@@ -689,15 +704,12 @@ function precisionBlock(r: PrecisionResult, ctx: BlockContext): Block {
   if (r.tInterval)
     b.add([text("Mean, classical t interval"), v(r.description.mean, fmt), v(r.tInterval.lower, fmt, undefined, "t.lo"), v(r.tInterval.upper, fmt, undefined, "t.hi"), text(`t distribution, ${r.tInterval.df} df (assumes normal data)`, { color: "#4A5A60" }, 4)]);
 
-  w.section("How this was worked out");
-  w.lines([
-    `The ${countText(r.n)} values were resampled with replacement ${countText(o.resamples)} times (seed ${o.seed}); each interval is the ${methodWord} bootstrap interval of that summary.`,
+  w.closing([
+    `The ${countText(r.n)} values were resampled with replacement ${countText(o.resamples)} times (seed ${o.seed}); each interval is the bootstrap interval (${intervalWords(o.method)}) of that summary: the range of values the summary takes in most resamples.`,
     ctx.live
       ? "To reproduce: the same data, resamples and seed give the same numbers. Cells with =RS.… formulas update when the data change; the reading is as of the run."
       : "To reproduce: the same data, resamples and seed give the same numbers. These are values: run the panel again after changing the data.",
-  ], NOTE, "method");
-  b.blank();
-  w.lines([caution(r)], CAUTION, "caution");
+  ], r);
   return b.build();
 }
 
@@ -725,9 +737,7 @@ function traitsBlock(r: TraitsResult, ctx: BlockContext): Block {
   const shown = ctx.groupNames ?? r.names;
   const area = ctx.traits ? traitsArea(ctx.traits) : null;
   const live = ctx.live && !!ctx.groups;
-  w.title(`Do ${groupsPhrase(gName)} differ on several traits at once?`, "");
-  w.section("What the data say");
-  w.lines(reading(r, { group: gName, traits: traitNames }), READING, "reading", READING_LEAD);
+  w.opening(`Do ${groupsPhrase(gName)} differ on several traits at once?`, reading(r, { group: gName, traits: traitNames }));
 
   w.section("1. All traits together");
   w.header(["Test", "Statistic", "p-value", "p from", "p to", "How p was found"]);
@@ -735,6 +745,7 @@ function traitsBlock(r: TraitsResult, ctx: BlockContext): Block {
     live && area ? f(rsFormula("TRAITTEST", [area, ctx.groups!.area, r.scale, o.resamples, o.seed]), P_FORMAT) : v(r.permanova.p, P_FORMAT), r.permanova, how(r.permanova, "shuffles"), "test.permanova");
   testRow(w, "Spread test (dispersion)", r.dispersion.statistic, null, v(r.dispersion.p, P_FORMAT), r.dispersion, how(r.dispersion, "shuffles"), "test.dispersion");
   b.add([text(`Variation explained by groups (R²)`), v(r.permanova.r2, "0.0%", undefined, "r2")]);
+  w.note(`PERMANOVA compares the ${plainName(gName)}s on all traits at once, by the distances between rows${r.scale === "standardize" ? " (each trait first put on the same scale)" : ""}; the spread test asks whether the ${plainName(gName)}s differ in how scattered their rows are.`);
 
   w.section(`2. Each trait on its own (with the mean of each ${plainName(gName)})`);
   w.header(["Trait", "p (perm. F)", "Holm adj. p", ...shown.map((g) => String(g))]);
@@ -745,11 +756,9 @@ function traitsBlock(r: TraitsResult, ctx: BlockContext): Block {
     const pCell = live && trait ? f(rsFormula("GROUPTEST", [trait.area, ctx.groups!.area, "F", o.resamples, o.seed]), P_FORMAT) : v(t.test.p, P_FORMAT);
     b.add([text(traitNames[i] ?? `trait ${i + 1}`), { ...pCell, tag: `trait.${i}.p` }, v(t.pAdjusted, P_FORMAT, undefined, `trait.${i}.adj`), ...t.means.map((m) => v(m, fm))]);
   });
+  w.note(`p (perm. F): each trait tested alone by shuffling; Holm adj. p: the same p raised to allow for testing ${r.traits.length} traits (Holm 1979).`);
 
-  w.section("How this was worked out");
-  w.lines(methodLines(r, ctx, `The ${plainName(gName)} labels were shuffled among the rows`, r.permanova), NOTE, "method");
-  b.blank();
-  w.lines([caution(r)], CAUTION, "caution");
+  w.closing(methodLines(r, ctx, `The ${plainName(gName)} labels were shuffled among the rows`, r.permanova), r);
   return b.build();
 }
 

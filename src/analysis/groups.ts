@@ -18,7 +18,6 @@
  */
 import { blockPermutationTest, blockedF } from "../blocks";
 import { anovaF, welchAnova } from "../classical";
-import { cliffsDelta, hodgesLehmann, oneWayEffectSizes } from "../effects";
 import { cellMeans, friedman, permutationFriedman } from "../friedman";
 import { splitByGroup } from "../groups";
 import { kruskalWallis, permutationKW } from "../kruskal";
@@ -28,8 +27,9 @@ import { pairwiseComparisons } from "../pairwise";
 import { PermutationResult } from "../permutation";
 import { permutationSNR } from "../snr";
 import { describeGroups } from "../summary";
+import { groupEffects } from "./group-effects";
 import { Stages } from "./progress";
-import type { ClassicalOutcome, GroupsRequest, GroupsResult, PairEffect, ProgressFn, TestOutcome } from "./types";
+import type { ClassicalOutcome, GroupsRequest, GroupsResult, ProgressFn, TestOutcome } from "./types";
 
 /** The parts of a permutation result a block shows. */
 export function outcome(r: PermutationResult): TestOutcome {
@@ -138,19 +138,7 @@ export function analyseGroups(req: GroupsRequest, onProgress?: ProgressFn): Grou
   const letters = lettersFromPairwise(names, summary.map((s) => s.mean), pairwise, options.alpha);
 
   stages.next();
-  const eff = oneWayEffectSizes(values, codes, k);
-  const groups = splitByGroup(values, codes, k);
-  const pairEffects: PairEffect[] = [];
-  for (let a = 0; a < k; a++) {
-    for (let b = a + 1; b < k; b++) {
-      pairEffects.push({
-        a: names[a],
-        b: names[b],
-        shift: hodgesLehmann(groups[a], groups[b], { level: options.level }),
-        cliffsDelta: cliffsDelta(groups[a], groups[b]),
-      });
-    }
-  }
+  const effects = groupEffects(values, codes, names, splitByGroup(values, codes, k), options.level);
   stages.done();
   return {
     question: "groups",
@@ -168,7 +156,7 @@ export function analyseGroups(req: GroupsRequest, onProgress?: ProgressFn): Grou
     rankClassical,
     pairwise,
     letters,
-    effects: { etaSquared: eff.etaSquared, omegaSquared: eff.omegaSquared, pairs: pairEffects },
+    effects,
     nullDistribution,
     options,
   };

@@ -28,7 +28,6 @@
  */
 import { jStat } from "jstat";
 import { anovaF, welchAnova } from "../classical";
-import { cliffsDelta, hodgesLehmann, oneWayEffectSizes } from "../effects";
 import { splitByGroup } from "../groups";
 import { kruskalWallis } from "../kruskal";
 import { lettersFromPairwise } from "../letters";
@@ -40,7 +39,8 @@ import { Rng } from "../random";
 import { describeGroups } from "../summary";
 import { bcaLevel, jackknifeAcceleration, leaveOneOutMeans, quantile } from "../bootstrap";
 import { binomial, hypergeometric, logFactorials } from "./discrete";
-import type { ClassicalOutcome, GroupsRequest, GroupsResult, PairEffect, ProgressFn, TestOutcome } from "./types";
+import { groupEffects } from "./group-effects";
+import type { ClassicalOutcome, GroupsRequest, GroupsResult, ProgressFn, TestOutcome } from "./types";
 
 /** The shared relabellings always run in this many parts (so results never depend on the machine). */
 export const SHARED_PARTS = 2;
@@ -457,13 +457,7 @@ export function finishShared(req: GroupsRequest, partials: SharedPartial[]): Gro
     return { a: names[a], b: names[b], difference: est, lower: ci.lower, upper: ci.upper, p: raw[i], pAdjusted: Math.min(1, Math.max(adjusted[i], options.adjust === "maxt" ? raw[i] : 0)), exact: false };
   });
   const letters = lettersFromPairwise(names, means, pairwise, options.alpha);
-  const eff = oneWayEffectSizes(values, codes, k);
-  const pairEffects: PairEffect[] = pairs.map(([a, b]) => ({
-    a: names[a],
-    b: names[b],
-    shift: hodgesLehmann(groups[a], groups[b], { level: options.level }),
-    cliffsDelta: cliffsDelta(groups[a], groups[b]),
-  }));
+  const effects = groupEffects(values, codes, names, groups, options.level);
   return {
     question: "groups",
     n,
@@ -479,7 +473,7 @@ export function finishShared(req: GroupsRequest, partials: SharedPartial[]): Gro
     rankClassical,
     pairwise,
     letters,
-    effects: { etaSquared: eff.etaSquared, omegaSquared: eff.omegaSquared, pairs: pairEffects },
+    effects,
     nullDistribution,
     options,
     shared: true,

@@ -64,6 +64,16 @@ async function pick(page: Page, id: string, header: string): Promise<void> {
   await page.selectOption(`#${id}`, value);
 }
 
+/** Reads the barley trial, asks "do groups differ?" and sets the resamples and where to write. */
+async function groupsOptions(page: Page, resamples: string, where: "new" | "beside" | "cell"): Promise<void> {
+  await readSheet(page, engine.trial);
+  await page.click("#rs-next-question");
+  await page.check("input[name=rs-question][value=groups]");
+  await page.click("#rs-next-options");
+  await page.selectOption("#rs-resamples", resamples);
+  await page.selectOption("#rs-where", where);
+}
+
 async function runToResults(page: Page): Promise<void> {
   await page.click("#rs-run");
   await page.waitForSelector("#rs-written", { timeout: 120000 });
@@ -135,10 +145,43 @@ describe.skipIf(!hasChromium)("the side panel in preview.html", () => {
     expect(pw.slice(2)).toEqual([r.pairwise[0].difference, r.pairwise[0].lower, r.pairwise[0].upper, r.pairwise[0].p, r.pairwise[0].pAdjusted]);
     const reading = await page.textContent("#rs-reading");
     expect(reading).toMatch(/evidence that yield differs between the lines/);
+    // the Results step says where the block is, carries the caution and shows the block on request
+    expect(await page.textContent("#rs-written")).toMatch(/starts at cell A1 on the sheet “Results”/);
+    const panelCaution = await page.textContent("#rs-caution");
+    expect(panelCaution).toMatch(/^Caution:.*One trial is weak evidence.*randomized.*local recommendations and qualified advice/);
+    await page.click(".wb-tab[data-sheet='Barley trial']");
+    await page.click("#rs-show");
+    await page.waitForTimeout(100);
+    const shown = await page.evaluate(() => (window as any).reshuffle.book.active);
+    expect(shown).toBe("Results");
+    // the caution in the block: rows of the block's width, none cut off, same words as the panel's
+    const rows = await page.locator("td[data-tag^='caution']").allTextContents();
+    expect(rows.length).toBeGreaterThan(1);
+    expect(rows.join(" ")).toBe(panelCaution);
+    await page.locator("td[data-tag^='caution']").last().scrollIntoViewIfNeeded();
+    const box = await page.locator("td[data-tag='caution']").boundingBox();
+    const last = await page.locator("td[data-tag^='caution']").last().boundingBox();
+    await page.screenshot({ path: shot("06b-caution"), clip: { x: box!.x - 4, y: box!.y - 4, width: box!.width + 8, height: last!.y + last!.height - box!.y + 8 } });
     await blockShot(page, "06-block-groups");
     // the charts are drawn from the cells
     expect(await page.locator(".wb-chart[data-kind='histogram'] rect").count()).toBeGreaterThan(20);
     expect(await page.locator(".wb-chart[data-kind='dots'] circle").count()).toBe(40);
+  });
+
+  /** Checks that each tagged block cell holds exactly the engine's number. */
+  const sameAs = (expected: Record<string, (r: any) => number>) => async (p: Page, r: any) => {
+    for (const [tag, value] of Object.entries(expected)) expect(await tagValue(p, tag), tag).toBe(value(r));
+  };
+
+  /** The lab's before/after columns, for the two questions about two measurements. */
+  const labBeforeAfter = (question: "paired" | "association") => ({
+    sheet: () => engine.lab,
+    set: async (p: Page) => {
+      await p.check(`input[name=rs-question][value=${question}]`);
+      await pick(p, "rs-first", "Before (mg/L)");
+      await pick(p, "rs-second", "After (mg/L)");
+    },
+    choices: (g: any): Choices => ({ question, first: col(g, "Before (mg/L)"), second: col(g, "After (mg/L)") }),
   });
 
   const cases: { name: string; sheet: () => string; set: (p: Page) => Promise<void>; choices: (g: any) => Choices; check: (p: Page, r: any) => Promise<void> }[] = [
@@ -150,39 +193,17 @@ describe.skipIf(!hasChromium)("the side panel in preview.html", () => {
         await pick(p, "rs-blocks", "Farm");
       },
       choices: (g) => ({ question: "groups", values: col(g, "Yield (t/ha)"), groups: col(g, "Line"), blocks: col(g, "Farm"), primary: "F" }),
-      check: async (p, r) => {
-        expect(await tagValue(p, "test.F.p")).toBe(r.f.p);
-        expect(await tagValue(p, "test.RANK.p")).toBe(r.rank.p);
-      },
+      check: sameAs({ "test.F.p": (r) => r.f.p, "test.RANK.p": (r) => r.rank.p }),
     },
     {
       name: "08-block-paired",
-      sheet: () => engine.lab,
-      set: async (p) => {
-        await p.check("input[name=rs-question][value=paired]");
-        await pick(p, "rs-first", "Before (mg/L)");
-        await pick(p, "rs-second", "After (mg/L)");
-      },
-      choices: (g) => ({ question: "paired", first: col(g, "Before (mg/L)"), second: col(g, "After (mg/L)") }),
-      check: async (p, r) => {
-        expect(await tagValue(p, "test.flip.p")).toBe(r.signFlip.p);
-        expect(await tagValue(p, "ci.mean.lo")).toBe(r.interval.lower);
-        expect(await tagValue(p, "test.t.p")).toBe(r.pairedT.p);
-      },
+      ...labBeforeAfter("paired"),
+      check: sameAs({ "test.flip.p": (r) => r.signFlip.p, "ci.mean.lo": (r) => r.interval.lower, "test.t.p": (r) => r.pairedT.p }),
     },
     {
       name: "09-block-association",
-      sheet: () => engine.lab,
-      set: async (p) => {
-        await p.check("input[name=rs-question][value=association]");
-        await pick(p, "rs-first", "Before (mg/L)");
-        await pick(p, "rs-second", "After (mg/L)");
-      },
-      choices: (g) => ({ question: "association", first: col(g, "Before (mg/L)"), second: col(g, "After (mg/L)") }),
-      check: async (p, r) => {
-        expect(await tagValue(p, "test.pearson.p")).toBe(r.pearson.p);
-        expect(await tagValue(p, "test.spearman.p")).toBe(r.spearman.p);
-      },
+      ...labBeforeAfter("association"),
+      check: sameAs({ "test.pearson.p": (r) => r.pearson.p, "test.spearman.p": (r) => r.spearman.p }),
     },
     {
       name: "10-block-precision",
@@ -207,10 +228,7 @@ describe.skipIf(!hasChromium)("the side panel in preview.html", () => {
         await pick(p, "rs-groups", "Line");
       },
       choices: (g) => ({ question: "traits", traits: [col(g, "Protein (%)"), col(g, "Screenings (%)"), col(g, "Height (cm)")], groups: col(g, "Line") }),
-      check: async (p, r) => {
-        expect(await tagValue(p, "test.permanova.p")).toBe(r.permanova.p);
-        expect(await tagValue(p, "trait.1.p")).toBe(r.traits[1].test.p);
-      },
+      check: sameAs({ "test.permanova.p": (r) => r.permanova.p, "trait.1.p": (r) => r.traits[1].test.p }),
     },
   ];
 
@@ -235,17 +253,14 @@ describe.skipIf(!hasChromium)("the side panel in preview.html", () => {
       book.setValue("Barley trial", 2, 6, "my note"); // G3
       book.onChange();
     });
-    await readSheet(page, engine.trial);
-    await page.click("#rs-next-question");
-    await page.check("input[name=rs-question][value=groups]");
-    await page.click("#rs-next-options");
-    await page.selectOption("#rs-resamples", "999");
-    await page.selectOption("#rs-where", "cell");
+    await groupsOptions(page, "999", "cell");
     await page.fill("#rs-cell", "F1");
     await page.click("#rs-run");
     await page.waitForSelector("#rs-ask", { timeout: 60000 });
     expect(await page.textContent("#rs-message")).toMatch(/not empty.*Nothing has been written/);
     await page.screenshot({ path: shot("12-ask-before-writing") });
+    // the offer names the cell it would use: G holds the note, H is the gap
+    expect(await page.textContent("#rs-ask-beside")).toBe("Write at I1 (first free space to the right of the data)");
     expect(await page.evaluate(() => (window as any).reshuffle.book.sheet("Barley trial").get(0, 5))).toBeUndefined();
     await page.click("#rs-ask-beside");
     await page.waitForSelector("#rs-written");
@@ -277,12 +292,7 @@ describe.skipIf(!hasChromium)("the side panel in preview.html", () => {
       for (let r = 1; r <= 40; r++) if (book.sheet("Barley trial").get(r, 1).value === "HB-07") book.setValue("Barley trial", r, 1, "=1+1");
       book.onChange();
     });
-    await readSheet(page, engine.trial);
-    await page.click("#rs-next-question");
-    await page.check("input[name=rs-question][value=groups]");
-    await page.click("#rs-next-options");
-    await page.selectOption("#rs-resamples", "999");
-    await page.selectOption("#rs-where", "new");
+    await groupsOptions(page, "999", "new");
     await runToResults(page);
     const cells = await page.evaluate(() => {
       const { book } = (window as any).reshuffle;
@@ -302,12 +312,7 @@ describe.skipIf(!hasChromium)("the side panel in preview.html", () => {
 
   it("cancel stops a long run at once and writes nothing", async () => {
     const sheetsBefore = await page.evaluate(() => (window as any).reshuffle.book.sheets.length);
-    await readSheet(page, engine.trial);
-    await page.click("#rs-next-question");
-    await page.check("input[name=rs-question][value=groups]");
-    await page.click("#rs-next-options");
-    await page.selectOption("#rs-resamples", "999999");
-    await page.selectOption("#rs-where", "new");
+    await groupsOptions(page, "999999", "new");
     await page.click("#rs-run");
     await page.waitForFunction(() => Number(document.querySelector("#rs-progress")?.getAttribute("aria-valuenow")) >= 1, null, { timeout: 60000 });
     await page.click("#rs-cancel");

@@ -8,7 +8,9 @@
  */
 import { describe, expect, it } from "vitest";
 import { BlockBuilder } from "../../taskpane/block";
-import { ExcelHost, cellInput, escapeText, kindOf } from "../../taskpane/excel-host";
+import { BARLEY_QUALITY, BARLEY_TRIAL, LAB_PAIRED } from "../../taskpane/demo-data";
+import { DEMO_TRIAL_SHEET, writeDemo } from "../../taskpane/demo";
+import { ExcelHost, WRITE_CHUNK_BYTES, addressOf, cellInput, escapeText, kindOf } from "../../taskpane/excel-host";
 import { CellsNotEmptyError } from "../../taskpane/host";
 import { P_FORMAT } from "../../taskpane/number-format";
 import { Cell, fakeExcel } from "./excel-mock";
@@ -162,5 +164,109 @@ describe("charts by API level", () => {
     expect(report.fallbacks.length).toBe(2);
     expect(f.charts.find((c) => c.type === "ColumnClustered")!.pointColours.size).toBe(0);
     expect(f.charts.find((c) => c.type === "XYScatter")!.mock.axes.categoryAxis.minimum).toBeUndefined();
+  });
+});
+
+describe("request size, API level and the demo data", () => {
+  function wideBlock(rows: number) {
+    // 8 columns of 60-character text: about 0.5 kB a row, so 12,000 rows are about 6 MB.
+    const b = new BlockBuilder(8, new Array(8).fill(12));
+    for (let r = 0; r < rows; r++) b.add(Array.from({ length: 8 }, (_, c) => ({ value: `row ${r} col ${c} `.padEnd(60, "x"), format: "@" })));
+    return b.build();
+  }
+
+  it("writes a block too large for one request in several, each under the budget and the 5 MB cap, after one emptiness check", async () => {
+    const { f } = host({ Results: [] });
+    let runs = 0;
+    const run = f.excel.run;
+    const counted = new ExcelHost({ run: (cb) => (runs++, run(cb)), supports: f.supports });
+    const b = wideBlock(12000);
+    const total = JSON.stringify(b.cells.map((row) => row.map(cellInput))).length;
+    expect(total).toBeGreaterThan(5e6); // one request would break Excel on the web's 5 MB cap
+    await counted.writeBlock("Results", 0, 0, b);
+    expect(runs).toBe(1); // check and write in the same Excel.run
+    expect(f.requestBytes[0]).toBe(0); // the first request only reads the target (emptiness check)
+    const writes = f.requestBytes.slice(1);
+    expect(writes.length).toBeGreaterThan(5);
+    for (const n of writes) expect(n).toBeLessThanOrEqual(WRITE_CHUNK_BYTES);
+    // every row written once, in order, with its escaped value
+    const parts = f.ranges.filter((r) => r.sheet === "Results" && Array.isArray(r.mock.numberFormat)).sort((a, c) => a.top - c.top);
+    let next = 0;
+    for (const p of parts) {
+      expect(p.top).toBe(next);
+      next += p.rows;
+    }
+    expect(next).toBe(12000);
+    expect(parts[parts.length - 1].mock.formulas.at(-1)[7]).toBe(b.cells[11999][7]!.value);
+  });
+
+  it("a usual block still goes in one write request", async () => {
+    const { f, h } = host({ Results: [] });
+    await h.writeBlock("Results", 0, 0, wideBlock(200));
+    expect(f.requestBytes.length).toBe(2); // read (check), write
+  });
+
+  it("checks emptiness again when writing, even after the panel found the place free", async () => {
+    const { f, h } = host({ Results: [] });
+    expect(await h.isEmpty({ sheet: "Results", top: 0, left: 0, rows: 3, cols: 3 })).toBe(true);
+    f.grids.get("Results")![1] = [null, "typed meanwhile"]; // the user types into the place
+    await expect(h.writeBlock("Results", 0, 0, wideBlock(3))).rejects.toThrow(/B2 is not empty/);
+    expect(f.ranges.some((r) => Array.isArray(r.mock.numberFormat))).toBe(false);
+  });
+
+  it("writes text starting with = + - @ as text, in a block and in a table", async () => {
+    const b = new BlockBuilder(4, [10, 10, 10, 10]);
+    b.add([{ value: "=SUM(A1)" }, { value: "+41 555" }, { value: "-5 kg" }, { value: "@field" }]);
+    const { f, h } = host({ Results: [] });
+    await h.writeBlock("Results", 0, 0, b.build());
+    const w = f.ranges.find((r) => Array.isArray(r.mock.numberFormat))!;
+    expect(w.mock.formulas).toEqual([["'=SUM(A1)", "'+41 555", "'-5 kg", "'@field"]]);
+    await h.writeTable("Results", 5, 0, [["@x", "+y"]]);
+    const t = f.ranges.find((r) => r.top === 5 && Array.isArray(r.mock.values) && r.mock.values[0][0] === "'@x")!;
+    expect(t.mock.values).toEqual([["'@x", "'+y"]]);
+  });
+
+  it("addresses ranges by A1 text", () => {
+    expect(addressOf(0, 0, 1, 1)).toBe("A1");
+    expect(addressOf(2, 1, 3, 26)).toBe("B3:AA5");
+  });
+
+  for (const level of ["1.1", "1.4", "1.9"]) {
+    it(`ExcelApi ${level}: calls nothing beyond the supported level (read, free space with a chart, sheet, block with charts, table, select)`, async () => {
+      const { host: ph, trial: sheet } = await demoBook();
+      const region = await readAt(ph, sheet);
+      const b = block(analyse(region, { question: "groups", values: col(region, "Yield (t/ha)"), groups: col(region, "Line"), blocks: null, primary: "F" }), true);
+      const { f, h } = host({ Trial: trial, Results: [] }, level);
+      f.sheet("Trial").charts.items.push({ left: 0, width: 300 }); // a chart of the user's over columns A to G
+      await h.readRegion("region");
+      await h.readRegion("table").catch(() => undefined);
+      const free = await h.findFreeSpace("Trial", 4, 2, 0);
+      expect(free.left).toBeGreaterThanOrEqual(Math.ceil(300 / 48)); // right of the chart
+      const name = await h.addSheet("Results");
+      await h.writeBlock(name, 0, 0, b);
+      await h.writeTable(name, 200, 0, [["a", 1]]);
+      await h.select({ sheet: name, top: 0, left: 0, rows: 1, cols: 1 });
+      expect(f.beyondLevel).toEqual([]);
+    });
+  }
+
+  it("the demo data go to new sheets only: the user's sheets are not touched, a taken name gets a number", async () => {
+    const mine: Cell[][] = [["my", "data"], [1, 2]];
+    const { f, h } = host({ Sheet1: mine, [DEMO_TRIAL_SHEET]: [["the user's own sheet of that name"]] });
+    f.selection = { sheet: "Sheet1", top: 1, left: 1, rows: 1, cols: 1 };
+    const { trial, lab, quality } = await writeDemo(h);
+    expect(trial).toBe(`${DEMO_TRIAL_SHEET} (2)`);
+    expect(f.added).toEqual([trial, quality, lab]);
+    // nothing was even looked at on the user's sheets
+    expect(f.ranges.filter((r) => r.sheet === "Sheet1" || r.sheet === DEMO_TRIAL_SHEET)).toEqual([]);
+    expect(f.grids.get("Sheet1")).toEqual(mine);
+    // each table written once, whole, at A1 of its new sheet, text kept as text
+    for (const [sheet, data] of [[trial, BARLEY_TRIAL], [quality, BARLEY_QUALITY], [lab, LAB_PAIRED]] as const) {
+      const w = f.ranges.filter((r) => r.sheet === sheet && Array.isArray(r.mock.values) && r.rows === data.length && r.top === 0 && r.left === 0 && r.mock.values !== undefined);
+      const written = w.find((r) => r.mock.values[0][0] === data[0][0])!;
+      expect(written.mock.values.length).toBe(data.length);
+    }
+    expect(f.selection).toEqual({ sheet: trial, top: 0, left: 0, rows: 1, cols: 1 });
+    expect(f.activated.at(-1)).toBe(trial);
   });
 });

@@ -5,6 +5,7 @@
  * otherwise), and every write it queues is recorded on the range for the test to check.
  */
 import { OfficeMockObject } from "office-addin-mock";
+import { parseAddress } from "../../functions/address";
 
 export type Cell = string | number | boolean | null;
 
@@ -37,13 +38,24 @@ export interface FakeExcel {
   tables: { name: string; sheet: string; top: number; left: number; rows: number; cols: number }[];
   added: string[];
   activated: string[];
+  /** Office.js members called that the API level of this fake does not have ("Worksheet.getRangeByIndexes 1.7"). */
+  beyondLevel: string[];
+  /** Estimated bytes queued in each request (one entry per sync). */
+  requestBytes: number[];
 }
 
 const key = (r: number, c: number) => `${r},${c}`;
 
-export function fakeExcel(sheets: Record<string, Cell[][]>, level = "1.9"): FakeExcel & { supports: (v: string) => boolean } {
+export function fakeExcel(sheets: Record<string, Cell[][]>, level = "1.9"): FakeExcel & { supports: (v: string) => boolean; sheet: (name: string) => any } {
   const grids = new Map<string, Cell[][]>(Object.entries(sheets).map(([k, v]) => [k, v.map((r) => r.slice())]));
-  const state: FakeExcel = { excel: null, grids, ranges: [], charts: [], syncs: 0, selection: { sheet: Object.keys(sheets)[0], top: 0, left: 0, rows: 1, cols: 1 }, tables: [], added: [], activated: [] };
+  const state: FakeExcel = { excel: null, grids, ranges: [], charts: [], syncs: 0, selection: { sheet: Object.keys(sheets)[0], top: 0, left: 0, rows: 1, cols: 1 }, tables: [], added: [], activated: [], beyondLevel: [], requestBytes: [] };
+  const order = ["1.1", "1.2", "1.3", "1.4", "1.5", "1.6", "1.7", "1.8", "1.9", "1.10"];
+  const supports = (v: string) => order.indexOf(v) <= order.indexOf(level);
+  /** Records a call from a set above this fake's level (what a real Excel of that level would refuse). */
+  const needs = (v: string, what: string) => {
+    if (!supports(v)) state.beyondLevel.push(`${what} ${v}`);
+  };
+
   const created: any[] = [];
   const get = (sheet: string, r: number, c: number): Cell => grids.get(sheet)?.[r]?.[c] ?? null;
   const typeOf = (v: Cell) => (v === null || v === "" ? "Empty" : typeof v === "number" ? "Double" : typeof v === "boolean" ? "Boolean" : String(v).startsWith("#") ? "Error" : "String");
@@ -66,9 +78,10 @@ export function fakeExcel(sheets: Record<string, Cell[][]>, level = "1.9"): Fake
         columnWidth: 48,
         rowHeight: 15,
         borders: { getItem: (name: string) => (borders[name] ??= {}) },
-        autofitColumns: () => undefined,
+        autofitColumns: () => needs("1.2", "RangeFormat.autofitColumns"),
       },
       merge: function () {
+        needs("1.2", "Range.merge");
         this.merged = true;
       },
       select: function () {
@@ -76,6 +89,7 @@ export function fakeExcel(sheets: Record<string, Cell[][]>, level = "1.9"): Fake
       },
       getCell: (r: number, c: number) => range(sheet, top + r, left + c, 1, 1),
       getSurroundingRegion: () => {
+        needs("1.7", "Range.getSurroundingRegion");
         // The filled rectangle around the top-left cell (enough for these tests).
         let t = top, l = left, b = top, rr = left;
         const filled = (i: number, j: number) => i >= 0 && j >= 0 && get(sheet, i, j) !== null;
@@ -92,6 +106,12 @@ export function fakeExcel(sheets: Record<string, Cell[][]>, level = "1.9"): Fake
     });
     // Plain object, not a mock copy: it is shared by every range of the sheet.
     mock.worksheet = sheetObj(sheet);
+    const load = mock.load.bind(mock);
+    mock.load = (props: string) => {
+      if (/(^|[ ,])left\b/.test(props)) needs("1.10", "Range.left");
+      if (/columnWidth|rowHeight/.test(props)) needs("1.2", "RangeFormat.columnWidth");
+      return load(props);
+    };
     // Office.js sets isNullObject on every proxy after a sync, without a load.
     mock.isNullObject = false;
     mock.borders = borders;
@@ -103,12 +123,27 @@ export function fakeExcel(sheets: Record<string, Cell[][]>, level = "1.9"): Fake
   function chart(sheet: string, type: string, src: any): any {
     const source = state.ranges.find((r) => r.mock === src)!;
     const c: FakeChart = { sheet, type, source, mock: null, pointColours: new Map() };
-    const series = (i: number) => ({
-      setXAxisValues: (r: any) => (c.xValues = state.ranges.find((x) => x.mock === r)),
-      points: { getItemAt: (p: number) => ({ format: { fill: { setSolidColor: (col: string) => c.pointColours.set(p, col) } } }) },
-      format: { fill: { setSolidColor: () => undefined }, line: {} },
-      index: i,
-    });
+    const series = (i: number) => {
+      const line: any = {};
+      const s: any = {
+        setXAxisValues: (r: any) => {
+          needs("1.7", "ChartSeries.setXAxisValues");
+          c.xValues = state.ranges.find((x) => x.mock === r);
+        },
+        points: { getItemAt: (p: number) => ({ format: { fill: { setSolidColor: (col: string) => c.pointColours.set(p, col) } } }) },
+        format: { fill: { setSolidColor: () => undefined }, line },
+        index: i,
+      };
+      // properties from later sets: recorded when set, checked against the level
+      const later = (obj: any, prop: string, v: string, what: string) => {
+        let value: unknown;
+        Object.defineProperty(obj, prop, { get: () => value, set: (x) => (needs(v, what), (value = x)), enumerable: true });
+      };
+      later(s, "markerStyle", "1.7", "ChartSeries.markerStyle");
+      later(s, "gapWidth", "1.7", "ChartSeries.gapWidth");
+      later(line, "lineStyle", "1.7", "ChartLineFormat.lineStyle");
+      return s;
+    };
     const seriesList = [series(0), series(1), series(2)];
     const axis = () => ({ title: {} });
     c.mock = {
@@ -129,8 +164,25 @@ export function fakeExcel(sheets: Record<string, Cell[][]>, level = "1.9"): Fake
     const ws: any = {
       name,
       load: () => ws,
-      getRangeByIndexes: (t: number, l: number, r: number, c: number) => range(name, t, l, r, c),
+      getRangeByIndexes: (t: number, l: number, r: number, c: number) => {
+        needs("1.7", "Worksheet.getRangeByIndexes");
+        return range(name, t, l, r, c);
+      },
+      getRange: (address: string) => {
+        const a = parseAddress(address);
+        if (!a || a.sheet) throw new Error(`InvalidArgument: ${address}`);
+        return range(name, a.top, a.left, a.rows, a.cols);
+      },
+      getUsedRange: () => {
+        const g = grids.get(name) ?? [];
+        let lastCol = 0, lastRow = 0;
+        g.forEach((row, i) => row.forEach((v, j) => {
+          if (v !== null && v !== "") { lastCol = Math.max(lastCol, j); lastRow = Math.max(lastRow, i); }
+        }));
+        return range(name, 0, 0, lastRow + 1, lastCol + 1);
+      },
       getUsedRangeOrNullObject: () => {
+        needs("1.4", "Worksheet.getUsedRangeOrNullObject");
         const g = grids.get(name) ?? [];
         let lastCol = -1, lastRow = -1;
         g.forEach((row, i) => row.forEach((v, j) => {
@@ -180,15 +232,21 @@ export function fakeExcel(sheets: Record<string, Cell[][]>, level = "1.9"): Fake
     },
     sync: async () => {
       state.syncs++;
-      for (const m of created.splice(0)) await m.sync();
+      const fresh = created.splice(0);
+      // what this request carries: the values, formulas and formats set on its ranges
+      // (a property only loaded is not yet an array here: the mock fills it in m.sync())
+      let bytes = 0;
+      for (const m of fresh) for (const k of ["formulas", "values", "numberFormat"]) if (Array.isArray(m[k])) bytes += JSON.stringify(m[k]).length;
+      state.requestBytes.push(bytes);
+      for (const m of fresh) await m.sync();
     },
   };
   state.excel = {
     run: async (cb: (ctx: any) => Promise<unknown>) => cb(context),
   };
-  const order = ["1.1", "1.2", "1.3", "1.4", "1.5", "1.6", "1.7", "1.8", "1.9", "1.10"];
-  const supports = (v: string) => order.indexOf(v) <= order.indexOf(level);
-  return Object.assign(state, { supports });
+  /** The fake worksheet (e.g. to place charts on it: `sheet("Trial").charts.items.push(…)`). */
+  const sheet = (name: string) => sheetObj(name);
+  return Object.assign(state, { supports, sheet });
 }
 
 export { key };

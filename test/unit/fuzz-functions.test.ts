@@ -17,7 +17,8 @@ import { FUNCTION_SPECS } from "../../functions/catalog";
 import { SheetError } from "../../functions/errors";
 import { callSheetFunction } from "../../functions/sheet";
 
-const CODES = new Set(["#VALUE!", "#N/A", "#NUM!", "#DIV/0!", "#REF!"]);
+// #REF! and #NAME? may arrive as inputs but are not valid custom-function outputs.
+const CODES = new Set(["#VALUE!", "#N/A", "#NUM!", "#DIV/0!"]);
 
 /** Checks one outcome; returns a description of the problem, or "" when it is fine. */
 function problem(r: unknown): string {

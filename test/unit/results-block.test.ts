@@ -210,6 +210,47 @@ describe("other questions", () => {
   });
 });
 
+describe("wording for readers new to statistics", () => {
+  /** Every run of the demo data: one per question. */
+  async function allRuns(): Promise<[string, Run][]> {
+    const t = await readAt(host, trial);
+    const l = await readAt(host, lab);
+    const q = await readAt(host, quality);
+    return [
+      ["groups", analyse(t, { question: "groups", values: col(t, "Yield (t/ha)"), groups: col(t, "Line"), blocks: null, primary: "F" })],
+      ["paired", analyse(l, { question: "paired", first: col(l, "Before (mg/L)"), second: col(l, "After (mg/L)") })],
+      ["association", analyse(l, { question: "association", first: col(l, "Before (mg/L)"), second: col(l, "After (mg/L)") })],
+      ["precision", analyse(t, { question: "precision", values: col(t, "Yield (t/ha)"), statistic: "mean" })],
+      ["traits", analyse(q, { question: "traits", traits: [col(q, "Protein (%)"), col(q, "Screenings (%)"), col(q, "Height (cm)")], groups: col(q, "Line") })],
+    ];
+  }
+  // A technical term may stand in a table only when a plain-words gloss is in the same block.
+  const glosses: [RegExp, RegExp][] = [
+    [/Monte Carlo/, /random shuffles \(Monte Carlo\) is itself a little uncertain|times at random/],
+    [/BCa/, /BCa: corrected for bias and skew/],
+    [/Cliff's δ/, /Cliff's delta runs from −1 to 1/],
+    [/ω²/, /less biased estimate \(ω²\)/],
+    [/PERMANOVA/, /PERMANOVA compares the lines on all traits at once/],
+    [/Holm adj\. p/, /raised to allow for testing 3 traits/],
+  ];
+
+  it("glosses every technical term it uses, and ends with the full caution on every block", async () => {
+    for (const [question, run] of await allRuns()) {
+      const b = block(run, false);
+      const texts = b.cells.flat().map((c) => (c && typeof c.value === "string" ? c.value : "")).filter(Boolean);
+      const all = texts.join(" ");
+      for (const [term, gloss] of glosses) if (term.test(all)) expect(all, `${question}: ${term}`).toMatch(gloss);
+      const tags = tagged(b);
+      const caution = [...tags].filter(([t]) => t === "caution" || t.startsWith("caution~")).map(([, t]) => String(t.cell.value)).join(" ");
+      expect(caution, question).toMatch(/^Caution: .*One trial is weak evidence on its own: check that plots or samples were randomized and the data have no slips, and weigh the result with local recommendations and qualified advice before a costly decision\.$/);
+      // wrapped into rows of the block's width: no row of the caution longer than the others allow
+      const rows = [...tags].filter(([t]) => t === "caution" || t.startsWith("caution~")).map(([, t]) => String(t.cell.value));
+      expect(rows.length, question).toBeGreaterThan(1);
+      for (const r of rows) expect(r.length, question).toBeLessThanOrEqual(130);
+    }
+  });
+});
+
 describe("text from the data", () => {
   it("stays text: a group label like =1+1 is a value in both the live and the value block", async () => {
     const b2 = new PreviewWorkbook((await import("../../functions/registry")).sheetFunctions);
