@@ -347,29 +347,34 @@ export function clopperPearson(b: number, m: number, level = 0.95): [number, num
  */
 export class PartitionSampler {
   private readonly pool: Float64Array;
+  /** Segment boundaries of the pool: segment s holds group segmentCode[s]. */
   private readonly starts: Int32Array;
+  private readonly segmentCode: Int32Array;
   private readonly draws: Int32Array;
   readonly k: number;
   readonly total: number;
 
+  /**
+   * The pool starts from the values sorted ascending and the segments are ordered by
+   * group size, so the draws depend only on the multiset of values and the group sizes:
+   * Monte Carlo results do not change when rows are reordered or groups renamed (for
+   * statistics symmetric in groups of equal size, such as F and Kruskal–Wallis H).
+   */
   constructor(values: ArrayLike<number>, codes: ArrayLike<number>, k: number) {
     const sizes = new Int32Array(k);
     for (let i = 0; i < codes.length; i++) sizes[codes[i]]++;
+    this.segmentCode = Int32Array.from({ length: k }, (_, g) => g).sort((a, b) => sizes[a] - sizes[b] || a - b);
     this.starts = new Int32Array(k + 1);
-    for (let g = 0; g < k; g++) this.starts[g + 1] = this.starts[g] + sizes[g];
-    this.pool = new Float64Array(codes.length);
-    const fill = this.starts.slice(0, k);
+    for (let s = 0; s < k; s++) this.starts[s + 1] = this.starts[s] + sizes[this.segmentCode[s]];
+    this.pool = Float64Array.from(values).sort();
     let t = 0;
-    for (let i = 0; i < codes.length; i++) {
-      this.pool[fill[codes[i]]++] = values[i];
-      t += values[i];
-    }
+    for (let i = 0; i < this.pool.length; i++) t += this.pool[i];
     this.k = k;
     this.total = t;
     this.draws = new Int32Array(Math.max(1, this.starts[k - 1]));
   }
 
-  /** Fills `sums` (length k) with the group sums of a uniformly random partition. */
+  /** Fills `sums` (length k, indexed by group code) with the group sums of a uniformly random partition. */
   sample(rng: Rng, sums: Float64Array): void {
     const v = this.pool;
     const n = v.length;
@@ -377,20 +382,20 @@ export class PartitionSampler {
     const idx = this.draws;
     rng.descendingInts(idx, n, this.starts[k - 1]);
     let rest = this.total;
-    for (let g = 0; g < k - 1; g++) {
-      const end = this.starts[g + 1];
+    for (let seg = 0; seg < k - 1; seg++) {
+      const end = this.starts[seg + 1];
       let s = 0;
-      for (let i = this.starts[g]; i < end; i++) {
+      for (let i = this.starts[seg]; i < end; i++) {
         const j = i + idx[i];
         const x = v[j];
         v[j] = v[i];
         v[i] = x;
         s += x;
       }
-      sums[g] = s;
+      sums[this.segmentCode[seg]] = s;
       rest -= s;
     }
-    sums[k - 1] = rest;
+    sums[this.segmentCode[k - 1]] = rest;
   }
 }
 

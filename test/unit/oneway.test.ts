@@ -85,3 +85,36 @@ describe("one-way F far from zero", () => {
     expect(b.f).toBeCloseTo(a.f, 6);
   });
 });
+
+describe("one-way F Monte Carlo is reproducible whatever the row order or group names", () => {
+  // Property (design rule: invariance to row order and label names), on PlantGrowth (Dobson 1983)
+  // with equal groups, and on an unequal-size subset of it.
+  const perm = (n: number, seed: number) => {
+    const idx = Array.from({ length: n }, (_, i) => i);
+    let s = seed;
+    for (let i = n - 1; i > 0; i--) {
+      s = (s * 1103515245 + 12345) % 2147483648;
+      const j = s % (i + 1);
+      [idx[i], idx[j]] = [idx[j], idx[i]];
+    }
+    return idx;
+  };
+  it("gives bit-identical p for reordered rows and renamed groups", () => {
+    const cases = [
+      { x: weight, labels: pg.data.group as string[] },
+      { x: weight.slice(0, 25), labels: (pg.data.group as string[]).slice(0, 25) },
+    ];
+    for (const { x, labels } of cases) {
+      const ref = encodeGroups(labels);
+      const a = permutationF(x, ref.codes, ref.names.length, { resamples: 4999, seed: 9 });
+      expect(a.exact).toBe(false);
+      for (const seed of [1, 2, 3]) {
+        const order = perm(x.length, seed);
+        const renamed = encodeGroups(order.map((i) => `line ${labels[i]}`));
+        const b = permutationF(order.map((i) => x[i]), renamed.codes, renamed.names.length, { resamples: 4999, seed: 9 });
+        expect(b.count).toBe(a.count);
+        expect(b.p).toBe(a.p);
+      }
+    }
+  });
+});
