@@ -15,6 +15,11 @@ function addinUrl() {
   return url;
 }
 
+/** Points the manifest's URLs (and its AppDomain, an origin) at the hosting address. */
+function rewriteManifest(xml, url) {
+  return xml.split(DEV_URL).join(url).split(new URL(DEV_URL).origin).join(new URL(url).origin);
+}
+
 module.exports = (env, argv) => {
   const mode = argv.mode || "production";
   const url = addinUrl();
@@ -45,7 +50,7 @@ module.exports = (env, argv) => {
       new CopyWebpackPlugin({
         patterns: [
           { from: "assets/*.png", to: "assets/[name][ext]" },
-          { from: "manifest.xml", to: "manifest.xml", transform: (content) => content.toString().split(DEV_URL).join(url) },
+          { from: "manifest.xml", to: "manifest.xml", transform: (content) => rewriteManifest(content.toString(), url) },
         ],
       }),
     ],

@@ -10,6 +10,7 @@ import { permutationSNR } from "../../src/snr";
 import { twoSampleTest } from "../../src/twosample";
 import { pairedTest } from "../../src/paired";
 import { blockPermutationTest } from "../../src/blocks";
+import { naiveDistanceRatio } from "../naive";
 
 function skewed(rng: Rng, n: number): Float64Array {
   const x = new Float64Array(n);
@@ -44,32 +45,14 @@ function shuffleArray(a: number[]): void {
   }
 }
 
-/** D by the O(n²) pair loop over the labelling. */
-function dPairs(x: Float64Array, lab: number[]): number {
-  let sw = 0, nw = 0, sb = 0, nb = 0;
-  for (let i = 0; i < x.length; i++) {
-    for (let j = i + 1; j < x.length; j++) {
-      const a = Math.abs(x[i] - x[j]);
-      if (lab[i] === lab[j]) {
-        sw += a;
-        nw++;
-      } else {
-        sb += a;
-        nb++;
-      }
-    }
-  }
-  return sb / nb / (sw / nw);
-}
-
 /** Baseline 1: shuffle labels, then D from every pair, O(n²) per resample. */
 function naiveDPairs(x: Float64Array, labels: Int32Array, resamples: number): number {
   const lab = Array.from(labels);
-  const obs = dPairs(x, lab);
+  const obs = naiveDistanceRatio(x, lab).d;
   let b = 0;
   for (let r = 0; r < resamples; r++) {
     shuffleArray(lab);
-    if (dPairs(x, lab) >= obs) b++;
+    if (naiveDistanceRatio(x, lab).d >= obs) b++;
   }
   return (b + 1) / (resamples + 1);
 }

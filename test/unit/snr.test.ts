@@ -3,30 +3,13 @@ import { encodeGroups } from "../../src/groups";
 import { DistanceRatio, distanceRatio, permutationSNR } from "../../src/snr";
 import { Rng, shuffle } from "../../src/random";
 import { getCase, expected, value } from "../reference";
+import { naiveDistanceRatio } from "../naive";
 
 // PlantGrowth: Dobson (1983), An Introduction to Statistical Modelling, Table 7.1; D and its
 // permutation p from the shared reference values (cases.json, case 4).
 const pg = getCase("plantgrowth_oneway");
 const weight: number[] = pg.data.weight;
 const g = encodeGroups(pg.data.group);
-
-/** The definition, O(n²): mean |xi − xj| between groups over mean |xi − xj| within groups. */
-function naiveD(x: ArrayLike<number>, lab: ArrayLike<number>): { d: number; between: number; within: number } {
-  let sw = 0, nw = 0, sb = 0, nb = 0;
-  for (let i = 0; i < x.length; i++) {
-    for (let j = i + 1; j < x.length; j++) {
-      const a = Math.abs(x[i] - x[j]);
-      if (lab[i] === lab[j]) {
-        sw += a;
-        nw++;
-      } else {
-        sb += a;
-        nb++;
-      }
-    }
-  }
-  return { d: sb / nb / (sw / nw), between: sb / nb, within: sw / nw };
-}
 
 function relClose(a: number, b: number, rel: number): void {
   expect(Math.abs(a - b)).toBeLessThanOrEqual(rel * Math.abs(b));
@@ -65,7 +48,7 @@ describe("distance ratio D: brute-force cross-checks", () => {
       const x = Array.from({ length: n }, () => Math.round(rng.normal() * 4) / 2 + 10);
       const lab = Array.from({ length: n }, (_, i) => (i < k ? i : rng.int(k)));
       const fast = distanceRatio(x, lab, k);
-      const slow = naiveD(x, lab);
+      const slow = naiveDistanceRatio(x, lab);
       relClose(fast.d, slow.d, 1e-12);
       relClose(fast.between, slow.between, 1e-12);
       relClose(fast.within, slow.within, 1e-12);
@@ -76,7 +59,7 @@ describe("distance ratio D: brute-force cross-checks", () => {
         shuffle(sortedLab, rng);
         const rowLab = new Int32Array(n);
         for (let r = 0; r < n; r++) rowLab[layout.order[r]] = sortedLab[r];
-        relClose(layout.dFromWithinSum(layout.withinSumSorted(sortedLab)), naiveD(x, rowLab).d, 1e-12);
+        relClose(layout.dFromWithinSum(layout.withinSumSorted(sortedLab)), naiveDistanceRatio(x, rowLab).d, 1e-12);
         // The fused Monte Carlo sampler returns W of the labelling it leaves behind.
         const w = layout.sampleWithinSum(rng, sortedLab);
         relClose(w, layout.withinSumSorted(sortedLab), 1e-13);
@@ -90,14 +73,14 @@ describe("distance ratio D: brute-force cross-checks", () => {
     const ex = permutationSNR(x, labs, 3, { resamples: 5000, keepNull: true });
     expect(ex.exact).toBe(true);
     expect(ex.resamples).toBe(4200); // 10! / (3! 3! 4!)
-    const dObs = naiveD(x, labs).d;
+    const dObs = naiveDistanceRatio(x, labs).d;
     let count = 0, total = 0;
     const cur = new Array(10).fill(-1);
     const cap = [3, 3, 4];
     const rec = (i: number, c: number[]) => {
       if (i === 10) {
         total++;
-        if (naiveD(x, cur).d >= dObs * (1 - 1e-12)) count++;
+        if (naiveDistanceRatio(x, cur).d >= dObs * (1 - 1e-12)) count++;
         return;
       }
       for (let gg = 0; gg < 3; gg++) if (c[gg] < cap[gg]) { c[gg]++; cur[i] = gg; rec(i + 1, c); c[gg]--; }
