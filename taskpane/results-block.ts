@@ -401,16 +401,21 @@ function groupsBlock(r: GroupsResult, ctx: BlockContext): Block {
   const order = r.summary.map((_, i) => i).sort((i, j) => r.summary[j].mean - r.summary[i].mean || i - j);
   const lettersTable: (number | string)[][] = [["group", "n", "mean", "letters"]];
   for (const g of order) lettersTable.push([shown[g], r.summary[g].n, r.summary[g].mean, r.letters[g]]);
-  w.spill(live ? rsFormula("LETTERS", [V!, G!, o.alpha, o.adjust, R, S]) : null, lettersTable, [undefined, INT_FORMAT, fmt, "@"], "letters", [undefined, undefined, undefined, LETTERS]);
+  // The pairwise sheet functions have no blocks: with blocks these tables are values.
+  const livePairs = live && !r.blocks;
+  w.spill(livePairs ? rsFormula("LETTERS", [V!, G!, o.alpha, o.adjust, R, S]) : null, lettersTable, [undefined, INT_FORMAT, fmt, "@"], "letters", [undefined, undefined, undefined, LETTERS]);
   w.note(`Groups that share a letter are not shown to differ (adjusted p above ${o.alpha}); groups with no letter in common differ.`);
   b.blank();
   const pct = levelText(o.level);
   const pwTable: (number | string)[][] = [["group 1", "group 2", "difference", `lower ${pct} %`, `upper ${pct} %`, "p", "adjusted p"]];
   const codeOf = new Map(r.names.map((n, i) => [n, i]));
   for (const p of r.pairwise) pwTable.push([shown[codeOf.get(p.a)!], shown[codeOf.get(p.b)!], p.difference, p.lower, p.upper, p.p, p.pAdjusted]);
-  w.spill(live ? rsFormula("PAIRWISE", [V!, G!, o.adjust, o.level, R, S]) : null, pwTable, [undefined, undefined, fmt, fmt, fmt, P_FORMAT, P_FORMAT], "pairwise");
+  w.spill(livePairs ? rsFormula("PAIRWISE", [V!, G!, o.adjust, o.level, R, S]) : null, pwTable, [undefined, undefined, fmt, fmt, fmt, P_FORMAT, P_FORMAT], "pairwise");
   const adjustWords: Record<string, string> = { holm: "Holm's method", maxt: "the max-T step-down method", bh: "the Benjamini–Hochberg method", none: "no adjustment" };
-  w.note(`difference = mean of group 1 − mean of group 2, with a ${pct} % bootstrap interval; p adjusted for ${r.pairwise.length} comparisons by ${adjustWords[o.adjust]}.`);
+  // Within blocks there is no max-T version: the engine answers "maxt" with Holm's method.
+  const adjustUsed = r.blocks && o.adjust === "maxt" ? "holm" : o.adjust;
+  const maxtNote = adjustUsed !== o.adjust ? ` (max-T has no within-${plainName(blockName)} form here, so Holm's method, which also guards against any false difference, was used)` : "";
+  w.note(`difference = mean of group 1 − mean of group 2, with a ${pct} % bootstrap interval; p adjusted for ${r.pairwise.length} comparisons by ${adjustWords[adjustUsed]}${maxtNote}.`);
 
   // 4. effect sizes
   w.section("4. How big are the differences?");
@@ -437,7 +442,9 @@ function groupsBlock(r: GroupsResult, ctx: BlockContext): Block {
   if (r.shared) {
     m.splice(1, 0, `For these large data every test and every pair comes from the same ${countText(o.resamples)} shuffles, drawn value by value (rows with equal values are interchangeable), in two parts with seeds ${o.seed}/0/2 and ${o.seed}/1/2. Pairwise p compare each pair within those shuffles of all groups; intervals are bootstrap (${intervalWords(o.method)}) with ${countText(o.resamples)} resamples within each group.`);
   } else {
-    m.splice(1, 0, `Pairwise comparisons shuffle the two groups' rows only; intervals are bootstrap (${intervalWords(o.method)}) with ${countText(o.resamples)} resamples.${r.blocks ? ` They do not use the ${plainName(blockName)}s as blocks.` : ""}`);
+    m.splice(1, 0, r.blocks
+      ? `Pairwise comparisons are made within ${plainName(blockName)}s: for each pair, the two groups' labels are shuffled within each ${plainName(blockName)} only. Intervals are bootstrap (${intervalWords(o.method)}) with ${countText(o.resamples)} resamples within each group (not within ${plainName(blockName)}s). The pairwise tables are values, not live formulas.`
+      : `Pairwise comparisons shuffle the two groups' rows only; intervals are bootstrap (${intervalWords(o.method)}) with ${countText(o.resamples)} resamples.`);
   }
   w.closing(m, r);
 

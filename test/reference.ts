@@ -1,6 +1,7 @@
 /**
  * Loads the shared check values (../shared/reference/cases.json): published data sets
- * with values computed in scipy 1.10.1 and R 4.2.2 (see that folder's README).
+ * with values computed independently in two general-purpose reference libraries (see
+ * that folder's README and each case's provenance).
  */
 import * as fs from "fs";
 import * as path from "path";

@@ -12,7 +12,9 @@
  *    shuffles inside blocks (Fisher 1935, ch. V; ./blocks) and Friedman's (1937) test on
  *    the block × treatment cell means (./friedman);
  *  - pairwise: ./pairwise (permutation p per pair, bootstrap interval, Holm, BH or
- *    max-T); letters: insert–absorb (Piepho 2004);
+ *    max-T); with blocks, each pair's labels are shuffled within blocks (Fisher 1935,
+ *    ch. V; blockedPairwiseComparisons, where max-T is answered by Holm 1979);
+ *    letters: insert–absorb (Piepho 2004) from those rows;
  *  - effect sizes: η², ω² (Olejnik & Algina 2003), Hodges–Lehmann shift (Hodges &
  *    Lehmann 1963) and Cliff's (1993) delta per pair.
  */
@@ -23,7 +25,7 @@ import { splitByGroup } from "../groups";
 import { kruskalWallis, permutationKW } from "../kruskal";
 import { lettersFromPairwise } from "../letters";
 import { permutationF } from "../oneway";
-import { pairwiseComparisons } from "../pairwise";
+import { blockedPairwiseComparisons, pairwiseComparisons } from "../pairwise";
 import { PermutationResult } from "../permutation";
 import { permutationSNR } from "../snr";
 import { describeGroups } from "../summary";
@@ -128,13 +130,11 @@ export function analyseGroups(req: GroupsRequest, onProgress?: ProgressFn): Grou
     }
   }
 
-  const pairwise = pairwiseComparisons(values, codes, names, {
-    adjust: options.adjust,
-    level: options.level,
-    resamples,
-    seed,
-    onProgress: stages.next(),
-  });
+  const pairOptions = { adjust: options.adjust, level: options.level, resamples, seed, onProgress: stages.next() };
+  // With blocks, each pair is compared by shuffles within blocks ("maxt" answered by Holm).
+  const pairwise = blocked
+    ? blockedPairwiseComparisons(values, codes, names, req.blocks!.codes, req.blocks!.names.length, pairOptions)
+    : pairwiseComparisons(values, codes, names, pairOptions);
   const letters = lettersFromPairwise(names, summary.map((s) => s.mean), pairwise, options.alpha);
 
   stages.next();

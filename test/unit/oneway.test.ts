@@ -4,7 +4,7 @@ import { OneWayF, permutationF } from "../../src/oneway";
 import { getCase, expected, value } from "../reference";
 
 // PlantGrowth: Dobson (1983), An Introduction to Statistical Modelling, Table 7.1;
-// reference values from R 4.2.2 anova(lm) and scipy 1.10.1 f_oneway (shared cases.json, case 4).
+// reference values from two general-purpose reference libraries (shared cases.json, case 4).
 const pg = getCase("plantgrowth_oneway");
 const weight: number[] = pg.data.weight;
 const g = encodeGroups(pg.data.group);

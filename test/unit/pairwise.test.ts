@@ -1,5 +1,7 @@
 import { describe, expect, it } from "vitest";
-import { maxTPairwise, pairwiseComparisons } from "../../src/pairwise";
+import { blockedPairwiseComparisons, maxTPairwise, pairwiseComparisons } from "../../src/pairwise";
+import { blockPermutationTest } from "../../src/blocks";
+import { holm } from "../../src/multiplicity";
 import { bootstrapDiffInterval } from "../../src/bootstrap";
 import { benjaminiHochberg } from "../../src/multiplicity";
 import { lettersFromPairwise } from "../../src/letters";
@@ -150,5 +152,140 @@ describe("pairwise properties and errors", () => {
     expect(() => pairwiseComparisons([1, 2, 3, 4, 5], [0, 0, 0, 1, 1], ["x", "y"])).toThrow(/at least 3/);
     expect(() => pairwiseComparisons([1, 2, 3], [0, 0, 0], ["x"])).toThrow(/at least 2 groups/);
     expect(() => pairwiseComparisons(vals, encodeGroups(labels).codes, ["A", "B", "C"], { adjust: "tukey" as any })).toThrow(/unknown adjustment/);
+  });
+});
+
+describe("pairwise comparisons within blocks (Fisher 1935, ch. V; Holm 1979)", () => {
+  // Rounding first base: Hollander & Wolfe (1973), p. 140ff — shared reference values
+  // (cases.json, case 5); players 5, 10, 12 and 21 as blocks, 3 methods, one time per cell.
+  const hw = getCase("hollander_wolfe_rank_tests");
+  const table: number[][] = [4, 9, 11, 20].map((i) => hw.data.friedman_RoundingTimes_22x3.rows[i]);
+  const methods = ["Round Out", "Narrow Angle", "Wide Angle"];
+  const v: number[] = [], t: number[] = [], b: number[] = [];
+  table.forEach((row, bi) => row.forEach((x, ti) => { v.push(x); t.push(ti); b.push(bi); }));
+
+  /** Every within-block relabelling of the pair, by brute force: 2^4 swap patterns. */
+  function brute(a: number, c: number): { p: number; diff: number } {
+    const mean = (x: number[]) => x.reduce((s, y) => s + y, 0) / x.length;
+    const diffOf = (swap: number) => {
+      const xa: number[] = [], xc: number[] = [];
+      table.forEach((row, bi) => {
+        if ((swap >> bi) & 1) { xa.push(row[c]); xc.push(row[a]); } else { xa.push(row[a]); xc.push(row[c]); }
+      });
+      return mean(xa) - mean(xc);
+    };
+    const obs = Math.abs(diffOf(0));
+    let count = 0;
+    for (let s = 0; s < 16; s++) if (Math.abs(diffOf(s)) >= obs * (1 - 1e-9) - 1e-12) count++;
+    return { p: count / 16, diff: diffOf(0) };
+  }
+
+  it("each pair's p is the full enumeration of the 2^4 within-block swaps; Holm on those p", () => {
+    const rows = blockedPairwiseComparisons(v, t, methods, b, 4, { adjust: "holm", resamples: 999 });
+    const pairs = [[0, 1], [0, 2], [1, 2]];
+    expect(rows.map((r) => `${r.a}|${r.b}`)).toEqual(pairs.map(([a, c]) => `${methods[a]}|${methods[c]}`));
+    const want = pairs.map(([a, c]) => brute(a, c));
+    rows.forEach((r, i) => {
+      expect(r.exact).toBe(true);
+      expect(r.p).toBeCloseTo(want[i].p, 14);
+      expect(r.difference).toBeCloseTo(want[i].diff, 12);
+    });
+    const h = holm(want.map((w) => w.p));
+    rows.forEach((r, i) => expect(r.pAdjusted).toBeCloseTo(h[i], 14));
+    // at least one pair is not tied at p = 1, so the check has teeth
+    expect(Math.min(...want.map((w) => w.p))).toBe(2 / 16);
+  });
+
+  it("'bh' and 'none' adjust the same raw p; 'maxt' falls back to Holm", () => {
+    const none = blockedPairwiseComparisons(v, t, methods, b, 4, { adjust: "none", resamples: 999 });
+    const bh = blockedPairwiseComparisons(v, t, methods, b, 4, { adjust: "bh", resamples: 999 });
+    const mt = blockedPairwiseComparisons(v, t, methods, b, 4, { adjust: "maxt", resamples: 999 });
+    const raw = none.map((r) => r.p);
+    none.forEach((r) => expect(r.pAdjusted).toBe(r.p));
+    const eb = benjaminiHochberg(raw), eh = holm(raw);
+    bh.forEach((r, i) => expect(r.pAdjusted).toBe(eb[i]));
+    mt.forEach((r, i) => expect(r.pAdjusted).toBe(eh[i]));
+    expect(() => blockedPairwiseComparisons(v, t, methods, b, 4, { adjust: "tukey" as any })).toThrow(/unknown adjustment/);
+  });
+
+  it("Monte Carlo agrees with the exact enumeration within its error (first 16 players, 2^16 swaps)", () => {
+    const all: number[][] = hw.data.friedman_RoundingTimes_22x3.rows.slice(0, 16);
+    const V: number[] = [], T: number[] = [], B: number[] = [];
+    all.forEach((row, bi) => row.forEach((x, ti) => { V.push(x); T.push(ti); B.push(bi); }));
+    const exact = blockedPairwiseComparisons(V, T, methods, B, 16, { adjust: "none", resamples: 1 << 16 });
+    const mc = blockedPairwiseComparisons(V, T, methods, B, 16, { adjust: "none", resamples: 4000, seed: 5 });
+    exact.forEach((r, i) => {
+      expect(r.exact).toBe(true);
+      expect(mc[i].exact).toBe(false);
+      expect(Math.abs(mc[i].p - r.p)).toBeLessThan(4 * Math.sqrt((r.p * (1 - r.p)) / 4000) + 2 / 4000);
+    });
+  });
+
+  it("Darwin's Zea mays as 15 blocks of two plants: the exact sign-flip count 1726 of 32768 (Fisher 1935, §21; cases.json case 1)", () => {
+    // Only the within-block difference matters: cross = d, self = 0 in each pot pair.
+    const dz = getCase("darwin_zea_mays");
+    const d: number[] = dz.data.d_cross_minus_self_eighths_inch;
+    const V = d.flatMap((x) => [x, 0]);
+    const T = d.flatMap(() => [0, 1]);
+    const B = d.flatMap((_, i) => [i, i]);
+    const [r] = blockedPairwiseComparisons(V, T, ["cross", "self"], B, d.length, { resamples: 40000 });
+    expect(r.exact).toBe(true);
+    expect(Math.round(r.p * 32768)).toBe(value(dz, "count_abs_ge_obs"));
+    expect(r.p).toBeCloseTo(value(dz, "p_two_sided"), 14);
+    expect(r.difference).toBeCloseTo(value(dz, "sum_d") / d.length, 12);
+  });
+
+  it("two treatments: equals the permutation F after blocks on npk's N (Yates 1935; cases.json case 6: 290 of 46656)", () => {
+    // F after blocks with two treatments, in complete blocks with equal counts, rises with
+    // |difference of means|, so both tests count the same relabellings.
+    const npk = getCase("npk_rcbd_within_block_permutation");
+    const rows: any[] = npk.data.rows;
+    const blocks = encodeGroups(rows.map((r) => r[0]));
+    const nitrogen = encodeGroups(rows.map((r) => r[1]));
+    const y: number[] = rows.map((r) => r[4]);
+    const [r] = blockedPairwiseComparisons(y, nitrogen.codes, nitrogen.names, blocks.codes, blocks.names.length, { resamples: 50000 });
+    const f = blockPermutationTest(y, nitrogen.codes, 2, blocks.codes, blocks.names.length, { resamples: 50000 });
+    expect(r.exact).toBe(true);
+    expect(f.exact).toBe(true);
+    expect(f.resamples).toBe(value(npk, "exact_within_block_n"));
+    expect(Math.round(r.p * value(npk, "exact_within_block_n"))).toBe(value(npk, "exact_within_block_count_ge"));
+    expect(r.p).toBeCloseTo(value(npk, "exact_within_block_p"), 14);
+    expect(r.p).toBeCloseTo(f.p, 14);
+    // and Monte Carlo (both with seed 1) agree within their error
+    const rm = blockedPairwiseComparisons(y, nitrogen.codes, nitrogen.names, blocks.codes, blocks.names.length, { resamples: 9999 })[0];
+    expect(rm.exact).toBe(false);
+    expect(Math.abs(rm.p - f.p)).toBeLessThan(4 * Math.sqrt((f.p * (1 - f.p)) / 9999) + 2 / 9999);
+  });
+
+  it("does not depend on row order or block names; p in (0, 1]; the interval is the two-group bootstrap", () => {
+    const a = blockedPairwiseComparisons(v, t, methods, b, 4, { resamples: 999 });
+    const perm = v.map((_, i) => (i * 7) % v.length); // 7 is prime to 12: a reordering
+    const b2 = blockedPairwiseComparisons(perm.map((i) => v[i]), perm.map((i) => t[i]), methods, perm.map((i) => 3 - b[i]), 4, { resamples: 999 });
+    a.forEach((r, i) => {
+      expect(b2[i].p).toBe(r.p);
+      expect(b2[i].pAdjusted).toBe(r.pAdjusted);
+      expect(b2[i].difference).toBeCloseTo(r.difference, 12);
+      expect(r.p).toBeGreaterThan(0);
+      expect(r.p).toBeLessThanOrEqual(1);
+    });
+    const ci = bootstrapDiffInterval(table.map((row) => row[0]), table.map((row) => row[1]), "mean", { resamples: 999, seed: 1 });
+    expect([a[0].lower, a[0].upper]).toEqual([ci.lower, ci.upper]);
+  });
+
+  it("ignoring the blocks would give another answer: blocks matter on npk", () => {
+    const npk = getCase("npk_rcbd_within_block_permutation");
+    const rows: any[] = npk.data.rows;
+    const blocks = encodeGroups(rows.map((r) => r[0]));
+    const nitrogen = encodeGroups(rows.map((r) => r[1]));
+    const y: number[] = rows.map((r) => r[4]);
+    const within = blockedPairwiseComparisons(y, nitrogen.codes, nitrogen.names, blocks.codes, blocks.names.length, { resamples: 50000 })[0];
+    const ignoring = pairwiseComparisons(y, nitrogen.codes, nitrogen.names, { resamples: 50000 })[0];
+    expect(within.difference).toBeCloseTo(ignoring.difference, 12);
+    expect(within.p).toBeLessThan(ignoring.p);
+  });
+
+  it("clear errors for bad block codes or lengths", () => {
+    expect(() => blockedPairwiseComparisons(v, t, methods, b.slice(1), 4)).toThrow(/blocks differ in length/);
+    expect(() => blockedPairwiseComparisons(v, t, methods, b.map((x) => x + 1), 4)).toThrow(/block code/);
   });
 });
