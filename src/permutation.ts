@@ -399,15 +399,10 @@ export class PartitionSampler {
   }
 }
 
-/** Group sums for a labelling, with the last group's sum as total minus the others (as the sampler does).
- * (Bookkeeping for the sampler.)
- */
-export function groupSums(values: ArrayLike<number>, codes: ArrayLike<number>, k: number, total: number, sums: Float64Array): void {
+/** Sums of the values of each group code for a labelling (bookkeeping). */
+function groupSums(values: ArrayLike<number>, codes: ArrayLike<number>, sums: Float64Array): void {
   sums.fill(0);
   for (let i = 0; i < codes.length; i++) sums[codes[i]] += values[i];
-  let rest = total;
-  for (let g = 0; g < k - 1; g++) rest -= sums[g];
-  sums[k - 1] = rest;
 }
 
 /**
@@ -426,22 +421,22 @@ export function groupSumsTest(
 ): PermutationResult {
   const direction = options.direction ?? "two-sided";
   const resamples = resampleCount(options);
-  const sampler = new PartitionSampler(values, codes, k);
   const sums = new Float64Array(k);
-  groupSums(values, codes, k, sampler.total, sums);
-  const observed = checkObserved(statistic(sums));
   const scheme = new GroupScheme(codes);
   if (scheme.count(resamples) <= resamples) {
     return permutationTest(
       scheme,
       () => {
-        groupSums(values, scheme.labels, k, sampler.total, sums);
+        groupSums(values, scheme.labels, sums);
         return statistic(sums);
       },
       options,
       tieScale,
     );
   }
+  groupSums(values, codes, sums);
+  const observed = checkObserved(statistic(sums));
+  const sampler = new PartitionSampler(values, codes, k);
   const rng = new Rng(options.seed ?? 1);
   return monteCarloTest(
     () => {

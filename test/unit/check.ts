@@ -4,6 +4,7 @@
  * used as independent cross-checks.
  */
 import { expect } from "vitest";
+import type { Direction } from "../../src/permutation";
 import { Case, expected } from "../reference";
 
 /**
@@ -94,4 +95,17 @@ export function permutationOf(n: number, seed: number): number[] {
     [p[i], p[j]] = [p[j], p[i]];
   }
   return p;
+}
+
+/**
+ * p from a fully enumerated null distribution with the engine's conventions: share of
+ * values at least as extreme as `v` (two-sided: |value − mean| ≥ |v − mean|), with a
+ * small absolute tolerance for rank sums that are multiples of 0.5.
+ */
+export function enumerationP(values: number[], v: number, mean: number, direction: Direction): number {
+  const eps = 1e-9;
+  const hits = values.filter((s) =>
+    direction === "greater" ? s >= v - eps : direction === "less" ? s <= v + eps : Math.abs(s - mean) >= Math.abs(v - mean) - eps,
+  );
+  return hits.length / values.length;
 }

@@ -3,7 +3,7 @@ import { rankSumCdf, rankSumExactP } from "../../src/rankdist";
 import { rankSumTest } from "../../src/ranksum";
 import { Direction } from "../../src/permutation";
 import { getCase } from "../reference";
-import { bruteMidranks, expectReference, forEachSubset, lcg, permutationOf } from "./check";
+import { bruteMidranks, enumerationP, expectReference, forEachSubset, lcg, permutationOf } from "./check";
 
 /** Brute force: W of every C(n, n1) choice of the "x" positions among the given pooled ranks. */
 function allRankSums(ranks: number[], n1: number): number[] {
@@ -16,14 +16,6 @@ function allRankSums(ranks: number[], n1: number): number[] {
   return out;
 }
 
-/** Enumeration p for W with the engine's conventions (two-sided |W − E W|). */
-function enumerationP(ws: number[], w: number, mean: number, direction: Direction): number {
-  const eps = 1e-9;
-  const hits = ws.filter((v) =>
-    direction === "greater" ? v >= w - eps : direction === "less" ? v <= w + eps : Math.abs(v - mean) >= Math.abs(w - mean) - eps,
-  );
-  return hits.length / ws.length;
-}
 
 /** Exact counts of U by a subset-sum recursion in BigInt (independent of the Gaussian-binomial recursion). */
 function bigIntUCounts(n1: number, n2: number): bigint[] {

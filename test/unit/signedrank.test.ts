@@ -3,7 +3,7 @@ import { Direction } from "../../src/permutation";
 import { signedRankCdf, signedRankExactP } from "../../src/rankdist";
 import { signedRankTest } from "../../src/signedrank";
 import { getCase } from "../reference";
-import { bruteMidranks, expectReference, lcg, permutationOf } from "./check";
+import { bruteMidranks, enumerationP, expectReference, lcg, permutationOf } from "./check";
 
 /** Brute force: V = Σ ranks with a + sign over all 2^n sign vectors of the given ranks. */
 function allSignedSums(ranks: number[]): number[] {
@@ -17,13 +17,6 @@ function allSignedSums(ranks: number[]): number[] {
   return out;
 }
 
-function enumerationP(vs: number[], v: number, mean: number, direction: Direction): number {
-  const eps = 1e-9;
-  const hits = vs.filter((s) =>
-    direction === "greater" ? s >= v - eps : direction === "less" ? s <= v + eps : Math.abs(s - mean) >= Math.abs(v - mean) - eps,
-  );
-  return hits.length / vs.length;
-}
 
 /** Exact counts of V for ranks 1..n by a subset-sum recursion in BigInt. */
 function bigIntVCounts(n: number): bigint[] {
